@@ -1,4 +1,5 @@
 import type { Knex } from "knex";
+import "./db/pg-types";
 import { loadEnvConfig } from "@next/env";
 
 loadEnvConfig(process.cwd());

@@ -1,4 +1,5 @@
 import "server-only";
+import "./pg-types";
 import knexFactory, { type Knex } from "knex";
 import { env } from "@/lib/env";
 

@@ -207,7 +207,7 @@ async function runTests(): Promise<void> {
 async function runBench(): Promise<void> {
   onInterrupt();
   const { env, urls } = prepare(TEST_PORTS);
-  const benchEnv = { ...env, DATABASE_URL: urls.test, NODE_ENV: "production" };
+  const benchEnv: NodeJS.ProcessEnv = { ...env, DATABASE_URL: urls.test, NODE_ENV: "production" };
   const files = existsSync("tests/bench") ? readdirSync("tests/bench").filter((f) => f.endsWith(".bench.ts")).sort() : [];
   let status = 0;
   for (const file of files) {

@@ -1,0 +1,5 @@
+import type { ReactNode } from "react";
+
+export default function FarmGroupLayout({ children }: { children: ReactNode }) {
+  return <div className="min-h-dvh">{children}</div>;
+}

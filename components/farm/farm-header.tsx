@@ -1,0 +1,34 @@
+import Link from "next/link";
+import { SignOutButton } from "@/components/auth/sign-out-button";
+import { Logo } from "@/components/ui/logo";
+import { can, ROLE_LABELS, type Role } from "@/lib/auth/roles";
+
+export function FarmHeader({ farmId, farmName, role, userName }: { farmId: string; farmName: string; role: Role; userName: string }) {
+  const links = [
+    { href: `/farms/${farmId}`, label: "Fields", show: true },
+    { href: `/farms/${farmId}/members`, label: "People", show: can(role, "manageMembers") },
+  ].filter((l) => l.show);
+  return (
+    <header className="sticky top-0 z-20 border-b border-river-100 bg-white/95 backdrop-blur">
+      <div className="mx-auto flex max-w-5xl flex-wrap items-center gap-x-4 gap-y-1 px-4 py-2">
+        <Link href="/farms" className="flex items-center gap-2" aria-label="All farms">
+          <Logo />
+        </Link>
+        <div className="min-w-0 flex-1">
+          <p className="truncate text-lg font-bold leading-tight">{farmName}</p>
+          <p className="text-xs text-ink/70">
+            {userName} · {ROLE_LABELS[role]}
+          </p>
+        </div>
+        <SignOutButton />
+        <nav aria-label="Farm" className="flex w-full gap-1 overflow-x-auto">
+          {links.map((l) => (
+            <Link key={l.href} href={l.href} className="tap flex items-center rounded-lg px-3 font-bold text-river-700 hover:bg-river-50">
+              {l.label}
+            </Link>
+          ))}
+        </nav>
+      </div>
+    </header>
+  );
+}

@@ -1,0 +1,19 @@
+/**
+ * Local stand-ins for the hosted services Rootbank talks to, started by `npm start` and `npm test`:
+ * the e-mail inbox (SMTP). Each speaks the real protocol, so the app's code is the production code.
+ */
+import path from "node:path";
+import { startInbox } from "./fakes/inbox";
+
+const smtpPort = Number(process.env.LOCAL_INBOX_SMTP_PORT ?? 2525);
+const httpPort = Number(process.env.LOCAL_INBOX_HTTP_PORT ?? 2580);
+const inbox = startInbox({ smtpPort, httpPort, dir: path.resolve(".data", `inbox-${smtpPort}`) });
+console.log(`e-mail inbox: SMTP on 127.0.0.1:${smtpPort}, messages at http://127.0.0.1:${httpPort}/messages`);
+
+function stop() {
+  inbox.smtp.close(() => undefined);
+  inbox.http.close();
+  process.exit(0);
+}
+process.on("SIGTERM", stop);
+process.on("SIGINT", stop);
