@@ -1,4 +1,4 @@
-import { NextResponse, type NextRequest } from "next/server";
+import { NextResponse } from "next/server";
 
 /** The map tile host allowed by the content security policy, from MAP_TILE_URL when it is absolute. */
 function tileOrigin(): string {
@@ -28,7 +28,7 @@ function contentSecurityPolicy(): string {
 }
 
 /** Security headers on every page and API answer. */
-export default function proxy(_req: NextRequest): NextResponse {
+export default function proxy(): NextResponse {
   const res = NextResponse.next();
   res.headers.set("Content-Security-Policy", contentSecurityPolicy());
   res.headers.set("X-Content-Type-Options", "nosniff");

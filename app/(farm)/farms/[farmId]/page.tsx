@@ -1,9 +1,8 @@
 import type { Metadata } from "next";
-import { TZDate } from "@date-fns/tz";
-import { format } from "date-fns";
 import { getFarm } from "@/db/farms";
 import { listFieldSummaries } from "@/db/fields";
 import { requireFarmPage } from "@/lib/auth/session";
+import { farmToday } from "@/lib/farm-time";
 
 export const metadata: Metadata = { title: "Fields" };
 
@@ -11,7 +10,7 @@ export default async function FarmPage({ params }: { params: Promise<{ farmId: s
   const { farmId } = await params;
   await requireFarmPage(farmId, "view");
   const farm = (await getFarm(farmId))!;
-  const today = format(new TZDate(Date.now(), farm.timeZone), "yyyy-MM-dd");
+  const today = farmToday(farm.timeZone);
   const fields = await listFieldSummaries(farmId, today);
   const totalHa = fields.reduce((sum, f) => sum + f.areaHa, 0);
   return (
