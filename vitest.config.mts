@@ -3,8 +3,8 @@ import { defineConfig } from "vitest/config";
 
 const resolve = {
   alias: {
-    "@": path.resolve(__dirname),
-    "server-only": path.resolve(__dirname, "tests/helpers/server-only-stub.ts"),
+    "@": import.meta.dirname,
+    "server-only": path.resolve(import.meta.dirname, "tests/helpers/server-only-stub.ts"),
   },
 };
 
