@@ -48,7 +48,7 @@ interface Texture {
   rew: readonly [number, number];
   tew: readonly [number, number];
   rawls: readonly [porosity: number, effective: number, suctionCm: number, ksatCmH: number];
-  /** TR-55 (1986) Appendix A: hydrologic soil group by texture. */
+  /** USDA TR-55 (1986) chapter 2: hydrologic soil group by texture. */
   group: "A" | "B" | "C" | "D";
 }
 
@@ -116,7 +116,7 @@ const mid = (r: readonly [number, number]) => Math.round(((r[0] + r[1]) / 2) * 1
 function sourceFor(texture: string): string {
   return (
     `FAO-56 (Allen et al. 1998) Table 19, ${texture}; Green-Ampt: Rawls, Brakensiek and Miller (1983) via ` +
-    `Chow, Maidment and Mays (1988) Table 4.3.1, ${texture}; hydrologic group: USDA TR-55 (1986) Appendix A`
+    `Chow, Maidment and Mays (1988) Table 4.3.1, ${texture}; hydrologic group by texture: USDA TR-55 (1986) chapter 2`
   );
 }
 
