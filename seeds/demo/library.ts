@@ -1,11 +1,24 @@
 /**
  * Published soil and crop values: the library every farm reads (farm_id null) and Kestrel Bend's own
- * tuned copies. Each row's `source` names the publication and table the numbers come from.
+ * tuned copies. The library rows are the engine's own tables (lib/waterbalance: SOIL_TEXTURES,
+ * CROP_LIBRARY), so the database and the engine never disagree on a default; each row's `source` names
+ * the publication and table behind it.
  */
+import {
+  CROP_LIBRARY,
+  SOIL_TEXTURES,
+  type CropLibraryEntry,
+  type RunoffCover,
+  type SoilTexture,
+  type TextureId,
+} from "../../lib/waterbalance";
+import { round } from "./random";
+
+export type HydrologicGroup = "A" | "B" | "C" | "D";
 
 export interface SoilValues {
   name: string;
-  texture: string;
+  texture: TextureId;
   theta_fc: number;
   theta_wp: number;
   theta_sat: number;
@@ -15,9 +28,9 @@ export interface SoilValues {
   ga_ksat_mm_h: number;
   ga_porosity: number;
   ga_effective_porosity: number;
-  hydrologic_group: "A" | "B" | "C" | "D";
+  hydrologic_group: HydrologicGroup;
   source: string;
-  note?: string;
+  note: string | null;
 }
 
 export interface CropValues {
@@ -25,6 +38,9 @@ export interface CropValues {
   kc_ini: number;
   kc_mid: number;
   kc_end: number;
+  kcb_ini: number | null;
+  kcb_mid: number | null;
+  kcb_end: number | null;
   stage_ini_days: number;
   stage_dev_days: number;
   stage_mid_days: number;
@@ -33,280 +49,191 @@ export interface CropValues {
   root_min_m: number;
   root_max_m: number;
   p: number;
+  runoff_cover: RunoffCover | null;
   source: string;
-  note?: string;
+  note: string | null;
 }
 
 /**
- * One texture: FAO-56 Table 19 ranges (θFC, θWP m³/m³; REW, TEW mm) and Rawls, Brakensiek and Miller (1983)
- * Green-Ampt values (porosity, effective porosity, suction cm, Ks cm/h) as tabulated in Chow, Maidment and
- * Mays (1988) Table 4.3.1. The library takes the middle of each FAO range; θsat is the Rawls porosity.
+ * Hydrologic soil group by texture, USDA TR-55 (1986) chapter 2: A sand, loamy sand, sandy loam; B silt
+ * loam, loam; C sandy clay loam; D clay loam, silty clay loam, sandy clay, silty clay, clay. Silt is not
+ * named there; it drains like silt loam, so B.
  */
-interface Texture {
-  fc: readonly [number, number];
-  wp: readonly [number, number];
-  rew: readonly [number, number];
-  tew: readonly [number, number];
-  rawls: readonly [porosity: number, effective: number, suctionCm: number, ksatCmH: number];
-  /** USDA TR-55 (1986) chapter 2: hydrologic soil group by texture. */
-  group: "A" | "B" | "C" | "D";
-}
-
-const TEXTURES: Record<string, Texture> = {
-  sand: {
-    fc: [0.07, 0.17],
-    wp: [0.02, 0.07],
-    rew: [2, 7],
-    tew: [6, 12],
-    rawls: [0.437, 0.417, 4.95, 11.78],
-    group: "A",
-  },
-  "loamy sand": {
-    fc: [0.11, 0.19],
-    wp: [0.03, 0.1],
-    rew: [4, 8],
-    tew: [9, 14],
-    rawls: [0.437, 0.401, 6.13, 2.99],
-    group: "A",
-  },
-  "sandy loam": {
-    fc: [0.18, 0.28],
-    wp: [0.06, 0.16],
-    rew: [6, 10],
-    tew: [15, 20],
-    rawls: [0.453, 0.412, 11.01, 1.09],
-    group: "A",
-  },
-  loam: {
-    fc: [0.2, 0.3],
-    wp: [0.07, 0.17],
-    rew: [8, 10],
-    tew: [16, 22],
-    rawls: [0.463, 0.434, 8.89, 0.34],
-    group: "B",
-  },
-  "silt loam": {
-    fc: [0.22, 0.36],
-    wp: [0.09, 0.21],
-    rew: [8, 11],
-    tew: [18, 25],
-    rawls: [0.501, 0.486, 16.68, 0.65],
-    group: "B",
-  },
-  "silty clay loam": {
-    fc: [0.3, 0.37],
-    wp: [0.17, 0.24],
-    rew: [8, 11],
-    tew: [22, 27],
-    rawls: [0.471, 0.432, 27.3, 0.1],
-    group: "D",
-  },
-  clay: {
-    fc: [0.32, 0.4],
-    wp: [0.2, 0.24],
-    rew: [8, 12],
-    tew: [22, 29],
-    rawls: [0.475, 0.385, 31.63, 0.03],
-    group: "D",
-  },
+const HYDROLOGIC_GROUP: Record<TextureId, HydrologicGroup> = {
+  sand: "A",
+  "loamy-sand": "A",
+  "sandy-loam": "A",
+  loam: "B",
+  "silt-loam": "B",
+  silt: "B",
+  "sandy-clay-loam": "C",
+  "clay-loam": "D",
+  "silty-clay-loam": "D",
+  "sandy-clay": "D",
+  "silty-clay": "D",
+  clay: "D",
 };
 
-const mid = (r: readonly [number, number]) => Math.round(((r[0] + r[1]) / 2) * 1000) / 1000;
-
-function sourceFor(texture: string): string {
-  return (
-    `FAO-56 (Allen et al. 1998) Table 19, ${texture}; Green-Ampt: Rawls, Brakensiek and Miller (1983) via ` +
-    `Chow, Maidment and Mays (1988) Table 4.3.1, ${texture}; hydrologic group by texture: USDA TR-55 (1986) chapter 2`
-  );
+function texture(id: TextureId): SoilTexture {
+  const t = SOIL_TEXTURES.find((x) => x.id === id);
+  if (!t) throw new Error(`no texture '${id}' in the engine's library`);
+  return t;
 }
 
-function textureSoil(
-  texture: string,
+/** A soil of one texture at its defaults, or with water contents picked inside the published ranges. */
+function soil(
+  id: TextureId,
   name: string,
-  pick?: { fc: number; wp: number; rew: number; tew: number },
+  pick?: { fc: number; wp: number; rew: number; tew: number; note: string },
 ): SoilValues {
-  const t = TEXTURES[texture];
-  if (!t) throw new Error(`no published values for texture '${texture}'`);
-  const [porosity, effective, suctionCm, ksatCmH] = t.rawls;
+  const t = texture(id);
+  const within = (v: number, [lo, hi]: readonly [number, number]) => v >= lo - 1e-9 && v <= hi + 1e-9;
+  if (pick && !(within(pick.fc, t.thetaFcRange) && within(pick.wp, t.thetaWpRange))) {
+    throw new Error(`${name}: θFC ${pick.fc} / θWP ${pick.wp} outside the published ranges for ${id}`);
+  }
   return {
     name,
-    texture,
-    theta_fc: pick?.fc ?? mid(t.fc),
-    theta_wp: pick?.wp ?? mid(t.wp),
-    theta_sat: porosity,
-    rew_mm: pick?.rew ?? mid(t.rew),
-    tew_mm: pick?.tew ?? mid(t.tew),
-    ga_suction_mm: Math.round(suctionCm * 100) / 10,
-    ga_ksat_mm_h: Math.round(ksatCmH * 100) / 10,
-    ga_porosity: porosity,
-    ga_effective_porosity: effective,
-    hydrologic_group: t.group,
-    source: sourceFor(texture),
+    texture: id,
+    theta_fc: pick?.fc ?? t.thetaFc,
+    theta_wp: pick?.wp ?? t.thetaWp,
+    theta_sat: t.greenAmpt.porosity,
+    rew_mm: pick?.rew ?? t.rewMm,
+    tew_mm: pick?.tew ?? t.tewMm,
+    ga_suction_mm: round(t.greenAmpt.suctionMm, 1),
+    ga_ksat_mm_h: round(t.greenAmpt.ksatMmH, 2),
+    ga_porosity: t.greenAmpt.porosity,
+    ga_effective_porosity: t.greenAmpt.effectivePorosity,
+    hydrologic_group: HYDROLOGIC_GROUP[id],
+    source:
+      `Water: ${t.waterSource} (${t.name.toLowerCase()}); Green-Ampt: ${t.greenAmptSource}; ` +
+      "hydrologic group by texture: USDA TR-55 (1986) chapter 2",
+    note: pick?.note ?? null,
   };
 }
 
-/** The library: one soil per texture, named after it, at the middle of the published ranges. */
-export const LIBRARY_SOILS: SoilValues[] = Object.keys(TEXTURES).map((texture) =>
-  textureSoil(texture, texture.charAt(0).toUpperCase() + texture.slice(1)),
-);
+/** The library: one soil per texture class, named after it, at the middle of the published ranges. */
+export const LIBRARY_SOILS: SoilValues[] = SOIL_TEXTURES.map((t) => soil(t.id, t.name));
 
 /**
  * Kestrel Bend's own soils: the textures of its country (grey cracking clay on the river flats, red loam
- * on the rises, a sandy loam where the pivots run), with water contents picked inside the FAO-56 ranges
- * to match the farm's probe calibration (invented for the demo).
+ * on the rises, a sandy loam where the pivots run), water contents picked inside the FAO-56 Table 19
+ * ranges to match the farm's probe calibration (invented for the demo).
  */
 export const KESTREL_SOILS: SoilValues[] = [
-  {
-    ...textureSoil("clay", "River flat grey clay", { fc: 0.38, wp: 0.23, rew: 10, tew: 26 }),
+  soil("clay", "River flat grey clay", {
+    fc: 0.38,
+    wp: 0.23,
+    rew: 10,
+    tew: 26,
     note: "Self-mulching grey clay; cracks when dry, so the first rain after a dry spell soaks in fast.",
-  },
-  {
-    ...textureSoil("loam", "Red loam", { fc: 0.27, wp: 0.12, rew: 9, tew: 20 }),
-    note: "Red-brown earth on the rises.",
-  },
-  { ...textureSoil("sandy loam", "Sandhill sandy loam", { fc: 0.21, wp: 0.09, rew: 8, tew: 17 }) },
+  }),
+  soil("loam", "Red loam", { fc: 0.27, wp: 0.12, rew: 9, tew: 20, note: "Red-brown earth on the rises." }),
+  soil("sandy-loam", "Sandhill sandy loam", {
+    fc: 0.21,
+    wp: 0.09,
+    rew: 8,
+    tew: 17,
+    note: "Sand ridge under the pivots.",
+  }),
 ];
 
-const CROP_SOURCE =
-  "FAO-56 (Allen et al. 1998): Kc and height Table 12, stage lengths Table 11, maximum root depth and p Table 22";
+/** Rows the engine's authors checked against FAO-56 (lib/waterbalance/crops.ts); the rest are from memory. */
+const CHECKED_CROPS = new Set([
+  "maize-grain",
+  "wheat-spring",
+  "potato",
+  "tomato",
+  "cotton",
+  "alfalfa-cutting",
+]);
 
-/**
- * The library crops, FAO-56 values. Where a table gives a range the row takes a stated point in it;
- * minimum root depth is common practice (0.15-0.25 m at sowing or transplanting), no table.
- */
-export const LIBRARY_CROPS: CropValues[] = [
-  {
-    name: "Maize (grain)",
-    kc_ini: 0.3,
-    kc_mid: 1.2,
-    kc_end: 0.35, // 0.35 for grain left to dry in the field; 0.60 when harvested at high moisture
-    stage_ini_days: 30,
-    stage_dev_days: 40,
-    stage_mid_days: 50,
-    stage_late_days: 30,
-    height_m: 2,
-    root_min_m: 0.15,
-    root_max_m: 1.3, // range 1.0-1.7
-    p: 0.55,
-    source: `${CROP_SOURCE} (maize, grain; stages: Spain, California, April)`,
-  },
-  {
-    name: "Cotton",
-    kc_ini: 0.35,
-    kc_mid: 1.175, // 1.15-1.20
-    kc_end: 0.6, // 0.70-0.50
-    stage_ini_days: 30,
-    stage_dev_days: 50,
-    stage_mid_days: 60,
-    stage_late_days: 55,
-    height_m: 1.35, // 1.2-1.5
-    root_min_m: 0.15,
-    root_max_m: 1.3, // range 1.0-1.7
-    p: 0.65,
-    source: `${CROP_SOURCE} (cotton)`,
-  },
-  {
-    name: "Tomato (processing)",
-    kc_ini: 0.6,
-    kc_mid: 1.15,
-    kc_end: 0.8, // 0.70-0.90
-    stage_ini_days: 35,
-    stage_dev_days: 40,
-    stage_mid_days: 50,
-    stage_late_days: 30,
-    height_m: 0.6,
-    root_min_m: 0.25, // transplanted
-    root_max_m: 1.0, // range 0.7-1.5
-    p: 0.4,
-    source: `${CROP_SOURCE} (tomato; stages: California)`,
-  },
-  {
-    name: "Lucerne (alfalfa hay)",
-    // Averaged over cuttings, which suits a season-long single curve; single cuttings run 0.40 / 1.20 / 1.15.
-    kc_ini: 0.4,
-    kc_mid: 0.95,
-    kc_end: 0.9,
-    // Table 11's first cutting cycle (California); from memory, not confirmed against the table.
-    stage_ini_days: 10,
-    stage_dev_days: 20,
-    stage_mid_days: 20,
-    stage_late_days: 10,
-    height_m: 0.7,
-    root_min_m: 0.15,
-    root_max_m: 1.5, // range 1.0-2.0
-    p: 0.55,
-    source: `${CROP_SOURCE} (alfalfa hay, averaged cutting effects; stage lengths from memory)`,
-  },
-  {
-    name: "Wheat (spring)",
-    kc_ini: 0.3,
-    kc_mid: 1.15,
-    kc_end: 0.3, // 0.25-0.4
-    stage_ini_days: 20,
-    stage_dev_days: 25,
-    stage_mid_days: 60,
-    stage_late_days: 30,
-    height_m: 1,
-    root_min_m: 0.15,
-    root_max_m: 1.25, // range 1.0-1.5
-    p: 0.55,
-    source: `${CROP_SOURCE} (spring wheat)`,
-  },
-  {
-    name: "Potato",
-    kc_ini: 0.5,
-    kc_mid: 1.15,
-    kc_end: 0.75,
-    stage_ini_days: 30,
-    stage_dev_days: 35,
-    stage_mid_days: 50,
-    stage_late_days: 30,
-    height_m: 0.6,
-    root_min_m: 0.15,
-    root_max_m: 0.5, // range 0.4-0.6
-    p: 0.35,
-    source: `${CROP_SOURCE} (potato; stages: Europe, April)`,
-  },
-];
+/** Cover class for the curve-number table: close-grown grains, close-seeded legumes, else row crops. */
+function coverOf(id: string): RunoffCover {
+  if (["wheat-spring", "wheat-winter", "barley", "rice"].includes(id)) return "small-grain-straight-good";
+  if (id.startsWith("alfalfa")) return "legume-rotation-straight-good";
+  return "row-crop-straight-good";
+}
 
-function libraryCrop(name: string): CropValues {
-  const crop = LIBRARY_CROPS.find((c) => c.name === name);
-  if (!crop) throw new Error(`no library crop '${name}'`);
-  return crop;
+function cropFrom(e: CropLibraryEntry): CropValues {
+  const reviewed = CHECKED_CROPS.has(e.id) ? "" : "; entered from memory, to be checked against the tables";
+  return {
+    name: e.name,
+    kc_ini: e.kc.ini,
+    kc_mid: e.kc.mid,
+    kc_end: e.kc.end,
+    kcb_ini: e.kcb.ini,
+    kcb_mid: e.kcb.mid,
+    kcb_end: e.kcb.end,
+    stage_ini_days: e.stages.iniDays,
+    stage_dev_days: e.stages.devDays,
+    stage_mid_days: e.stages.midDays,
+    stage_late_days: e.stages.lateDays,
+    height_m: e.heightM,
+    root_min_m: e.rootDepthMinM,
+    root_max_m: e.rootDepthMaxM,
+    p: e.pTable,
+    runoff_cover: coverOf(e.id),
+    source:
+      `FAO-56 (Allen et al. 1998): Kc ${e.sources.kc}, Kcb ${e.sources.kcb}, stage lengths ${e.sources.stages} ` +
+      `(${e.stagesRow}), maximum root depth and p ${e.sources.rootsAndP}${reviewed}`,
+    note: e.note ?? null,
+  };
+}
+
+/** The library crops: the engine's crop table, row for row. */
+export const LIBRARY_CROPS: CropValues[] = CROP_LIBRARY.map(cropFrom);
+
+function libraryCrop(id: string): CropValues {
+  const e = CROP_LIBRARY.find((c) => c.id === id);
+  if (!e) throw new Error(`no crop '${id}' in the engine's library`);
+  return cropFrom(e);
 }
 
 /**
- * Kestrel Bend's crops: copies of the library rows with stage lengths the agronomist set for Riverina
- * October sowings (invented for the demo; FAO-56 advises local stage lengths where known).
+ * Kestrel Bend's crops: copies of library rows that its agronomist tuned for Riverina October sowings
+ * (invented for the demo; FAO-56 advises local stage lengths where they are known).
  */
 export const KESTREL_CROPS: CropValues[] = [
   {
-    ...libraryCrop("Maize (grain)"),
+    ...libraryCrop("maize-grain"),
     name: "Maize",
     stage_ini_days: 25,
     stage_dev_days: 40,
     stage_mid_days: 50,
     stage_late_days: 35,
-    note: "Stage lengths for an October sowing in the Riverina.",
+    root_max_m: 1.2, // inside Table 22's 1.0-1.7; the probe sees roots to 1.2 m on the clay
+    note: "Stage lengths for an October sowing in the Riverina; roots to 1.2 m seen on the probe.",
   },
   {
-    ...libraryCrop("Cotton"),
+    ...libraryCrop("cotton"),
     name: "Cotton",
+    root_max_m: 1.2,
     stage_late_days: 45,
     note: "Late season shortened: defoliated in late March.",
   },
-  { ...libraryCrop("Tomato (processing)"), name: "Processing tomato" },
   {
-    ...libraryCrop("Lucerne (alfalfa hay)"),
+    ...libraryCrop("tomato"),
+    name: "Processing tomato",
+    root_min_m: 0.25, // transplanted seedlings start deeper than a sown crop
+    note: "Transplanted; harvested by machine in February.",
+  },
+  {
+    ...libraryCrop("alfalfa-cutting"),
     name: "Lucerne",
-    // An established stand cut every four to five weeks: one long mid-season at the cutting-averaged Kc.
+    // An established stand cut every four to five weeks: one long season at the cutting-averaged Kc
+    // (FAO-56 Table 12, alfalfa hay averaged: 0.40 / 0.95 / 0.90), starting from the regrowing stand.
     kc_ini: 0.9,
+    kc_mid: 0.95,
+    kc_end: 0.9,
+    kcb_ini: null, // the Table 17 values are for one cutting cycle, not this averaged curve
+    kcb_mid: null,
+    kcb_end: null,
     stage_ini_days: 20,
     stage_dev_days: 30,
     stage_mid_days: 200,
     stage_late_days: 60,
     root_min_m: 1.2,
     root_max_m: 1.5,
-    note: "Third-year stand; whole-season curve over the cuttings.",
+    note: "Third-year stand; one whole-season curve averaged over the cuttings.",
   },
 ];

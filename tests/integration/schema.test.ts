@@ -185,6 +185,16 @@ describe("constraints", () => {
     await expect(
       knex("soils").insert({ ...soil, name: "fc > sat", theta_fc: 0.5, theta_wp: 0.2, theta_sat: 0.45 }),
     ).rejects.toMatchObject(violates("soils_theta_check"));
+    // A texture the engine has no published values for would leave the soil without defaults.
+    await expect(
+      knex("soils").insert({
+        ...soil,
+        name: "mystery",
+        texture: "moon dust",
+        theta_fc: 0.36,
+        theta_wp: 0.22,
+      }),
+    ).rejects.toMatchObject(violates("soils_texture_check"));
     // The effective porosity is part of the total porosity (Rawls et al. 1983 Green-Ampt parameters).
     await expect(
       knex("soils").insert({
