@@ -43,6 +43,7 @@ export function MembersPanel({ farmId, myRole, myUserId }: { farmId: string; myR
         <h2 id="members-heading" className="text-lg font-bold">
           Members
         </h2>
+        {members.isLoading && <p className="text-ink/70">Loading members…</p>}
         <ul className="divide-y divide-river-100 rounded-2xl bg-white ring-1 ring-river-100">
           {members.data?.data.map((m) => {
             const mayHandle = m.userId !== myUserId && roles.includes(m.role);

@@ -15,7 +15,7 @@ export default async function FarmPage({ params }: { params: Promise<{ farmId: s
   const totalHa = fields.reduce((sum, f) => sum + f.areaHa, 0);
   return (
     <section aria-labelledby="fields-heading" className="flex flex-col gap-4">
-      <div className="flex items-baseline justify-between">
+      <div className="flex flex-wrap items-baseline justify-between gap-x-3">
         <h1 id="fields-heading" className="text-2xl font-bold">
           Fields
         </h1>
