@@ -55,13 +55,6 @@ export interface SimEvent {
   meterEnd: number | null;
 }
 
-/** Where the crude account leaves a field on the last day (to see the demo shows a spread of states). */
-export interface SimState {
-  fieldKey: string;
-  depletionMm: number;
-  tawMm: number;
-}
-
 export interface SimCheck {
   fieldKey: string;
   date: string;
@@ -98,10 +91,9 @@ export function simulateIrrigation(
   fields: readonly SimField[],
   etoMm: (date: string) => number,
   options: { from: string; lastDay: string; cutoffMs: number; timeZone: string },
-): { events: SimEvent[]; checks: SimCheck[]; state: SimState[] } {
+): { events: SimEvent[]; checks: SimCheck[] } {
   const events: SimEvent[] = [];
   const checks: SimCheck[] = [];
-  const state: SimState[] = [];
   const depletion = new Map<string, number>();
   const busyUntil = new Map<string, number>();
   const meter = new Map<string, number>();
@@ -110,9 +102,10 @@ export function simulateIrrigation(
     for (const f of fields) {
       if (day < f.plantingDate) continue;
       const age = daysBetween(f.plantingDate, day);
-      const c = f.crop;
+      const crop = f.crop;
       // Harvested: the season is over and nobody waters the stubble.
-      if (age >= c.stage_ini_days + c.stage_dev_days + c.stage_mid_days + c.stage_late_days) continue;
+      if (age >= crop.stage_ini_days + crop.stage_dev_days + crop.stage_mid_days + crop.stage_late_days)
+        continue;
       const rootM = rootDepthOn(f.crop, age);
       const tawMm = 1000 * (f.thetaFc - f.thetaWp) * rootM;
       let dr = depletion.get(f.key) ?? f.initialDepletionMm;
@@ -159,12 +152,10 @@ export function simulateIrrigation(
           dr = Math.max(0, dr - grossMm * sys.efficiency);
         }
       }
-      if (day === options.lastDay)
-        state.push({ fieldKey: f.key, depletionMm: round(dr, 1), tawMm: round(tawMm, 1) });
       depletion.set(f.key, dr);
     }
   }
-  return { events, checks, state };
+  return { events, checks };
 }
 
 /**
