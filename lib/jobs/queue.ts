@@ -5,6 +5,10 @@ import { env } from "@/lib/env";
 /** Names of Rootbank's background jobs. */
 export const JOBS = {
   maintenance: "maintenance",
+  /** bring one farm's dirty field accounts up to date; data: { farmId } */
+  recompute: "recompute",
+  /** per farm, at its local night: add the new day, refresh forecast and outlook, then alerts */
+  nightly: "nightly",
 } as const;
 
 const globalForBoss = globalThis as unknown as { rootbankBoss?: Promise<PgBoss> };
@@ -15,7 +19,10 @@ export function queue(): Promise<PgBoss> {
     const boss = new PgBoss({ connectionString: env().DATABASE_URL, schema: "jobs" });
     boss.on("error", (err: unknown) => console.error("job queue:", err));
     await boss.start();
-    for (const name of Object.values(JOBS)) await boss.createQueue(name);
+    // 'stately': per farm (singletonKey) at most one job waiting and one running, so bursts merge.
+    await boss.createQueue(JOBS.maintenance, { name: JOBS.maintenance, policy: "standard" });
+    await boss.createQueue(JOBS.recompute, { name: JOBS.recompute, policy: "stately" });
+    await boss.createQueue(JOBS.nightly, { name: JOBS.nightly, policy: "stately" });
     return boss;
   })();
   return globalForBoss.rootbankBoss;

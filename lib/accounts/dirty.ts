@@ -1,0 +1,36 @@
+import "server-only";
+import type { Knex } from "knex";
+import { db } from "@/db/knex";
+import { JOBS, queue } from "@/lib/jobs/queue";
+
+/**
+ * Marks fields' accounts stale from a date: any write that changes an input (rain, weather, irrigation,
+ * a soil check, planting or soil settings) calls this inside its transaction. The earliest date wins,
+ * so several changes before a recompute run merge into one rewrite.
+ */
+export async function markFieldsDirty(
+  trx: Knex | Knex.Transaction,
+  target: { fieldIds: readonly string[] } | { farmId: string },
+  fromDate: string,
+): Promise<void> {
+  const query = trx("fields").update({
+    account_dirty_from: trx.raw("least(coalesce(account_dirty_from, ?::date), ?::date)", [fromDate, fromDate]),
+  });
+  if ("farmId" in target) await query.where({ farm_id: target.farmId });
+  else if (target.fieldIds.length > 0) await query.whereIn("id", target.fieldIds);
+}
+
+/**
+ * Asks a worker to bring a farm's accounts up to date. One job per farm waits at a time (the queue
+ * deduplicates on the farm), so a burst of writes gives one recompute. Call after the transaction commits.
+ */
+export async function requestRecompute(farmId: string): Promise<void> {
+  const boss = await queue();
+  await boss.send(JOBS.recompute, { farmId }, { singletonKey: farmId, retryLimit: 3, retryBackoff: true });
+}
+
+/** Marks and requests in one step, for writes that are not part of a larger transaction. */
+export async function inputsChanged(farmId: string, target: { fieldIds: readonly string[] } | { farmId: string }, fromDate: string): Promise<void> {
+  await markFieldsDirty(db, target, fromDate);
+  await requestRecompute(farmId);
+}

@@ -1,0 +1,3 @@
+import type { Operation } from "../types";
+
+export const operations: Operation[] = [];
