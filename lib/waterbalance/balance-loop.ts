@@ -230,7 +230,9 @@ export function balanceLoop(input: BalanceLoopInput, out: BalanceLoopOutput): nu
     let end = dr - eff - irr - cr + eta;
     let dp = 0;
     if (end > taw) {
+      // ET stops at wilting point; the floor at 0 only absorbs rounding when Dr starts at TAW
       eta -= end - taw;
+      if (eta < 0) eta = 0;
       end = taw;
     } else if (end < 0) {
       dp = -end;
