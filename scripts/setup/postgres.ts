@@ -58,7 +58,7 @@ function chooseDataRoot(): string {
   mkdirSync(preferred, { recursive: true });
   const reachable = run("runuser", ["-u", "postgres", "--", "test", "-x", path.dirname(preferred)], { quiet: true }) === 0;
   if (reachable) return preferred;
-  const fallback = path.join(tmpdir(), `rootbank-pg-${createHash("sha1").update(preferred).digest("hex").slice(0, 10)}`);
+  const fallback = path.join(tmpdir(), `rootbank-${createHash("sha1").update(preferred).digest("hex").slice(0, 10)}`, "pg");
   say(`the postgres user cannot enter ${path.dirname(preferred)} (a mode-700 parent folder?);`);
   say(`keeping the database in ${fallback} instead. Set ROOTBANK_PG_DIR to choose another place.`);
   return fallback;
