@@ -1,5 +1,9 @@
 import "server-only";
+import { requestRecompute } from "@/lib/accounts/dirty";
+import type { FarmPatch } from "@/lib/validation/farm";
+import { audit } from "./audit";
 import { db } from "./knex";
+import { markFieldsFromPlantings } from "./plantings";
 
 export interface Farm {
   id: string;
@@ -51,4 +55,58 @@ export function toFarm(r: FarmRow): Farm {
 export async function getFarm(id: string): Promise<Farm | undefined> {
   const row = await db<FarmRow>("farms").where({ id }).first();
   return row ? toFarm(row) : undefined;
+}
+
+const FARM_COLUMNS: Record<keyof FarmPatch, keyof FarmRow> = {
+  name: "name",
+  timeZone: "time_zone",
+  unitSystem: "unit_system",
+  latitude: "latitude",
+  longitude: "longitude",
+  elevationM: "elevation_m",
+  rainDayBoundaryHour: "rain_day_boundary_hour",
+  countFlaggedValues: "count_flagged_values",
+  allocationMl: "allocation_ml",
+  carryoverMl: "carryover_ml",
+  waterYearStartMonth: "water_year_start_month",
+};
+
+/**
+ * Settings the account is computed from: the zone and boundary hour decide which local day rain and
+ * weather belong to; flagged values are in or out of it; the location stands in for a station's.
+ */
+const FARM_ACCOUNT_KEYS: readonly (keyof FarmPatch)[] = [
+  "timeZone",
+  "rainDayBoundaryHour",
+  "countFlaggedValues",
+  "latitude",
+  "longitude",
+  "elevationM",
+];
+
+/**
+ * Changes a farm's settings (the caller has checked the role may change each part), audited, and marks
+ * every field's account stale from its earliest planting when an input of the account changed.
+ */
+export async function updateFarm(farmId: string, userId: string, patch: FarmPatch): Promise<Farm | undefined> {
+  const result = await db.transaction(async (trx) => {
+    const row = await trx<FarmRow>("farms").where({ id: farmId }).forUpdate().first();
+    if (!row) return undefined;
+    const before = toFarm(row);
+    const columns: Record<string, unknown> = { updated_by: userId };
+    for (const [key, value] of Object.entries(patch)) {
+      if (value !== undefined) columns[FARM_COLUMNS[key as keyof FarmPatch]] = value;
+    }
+    const [updated] = (await trx("farms").where({ id: farmId }).update(columns).returning("*")) as FarmRow[];
+    const after = toFarm(updated!);
+    await audit({ farmId, userId, action: "update", entity: "farm", entityId: farmId, before, after }, trx);
+    let dirty = false;
+    if (FARM_ACCOUNT_KEYS.some((k) => before[k] !== after[k])) {
+      const fieldIds = (await trx("fields").where({ farm_id: farmId }).pluck("id")) as string[];
+      dirty = await markFieldsFromPlantings(trx, fieldIds);
+    }
+    return { after, dirty };
+  });
+  if (result?.dirty) await requestRecompute(farmId);
+  return result?.after;
 }
