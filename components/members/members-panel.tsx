@@ -77,9 +77,10 @@ export function MembersPanel({ farmId, myRole, myUserId }: { farmId: string; myR
                     </select>
                     <Button
                       variant="danger"
-                      onClick={() =>
-                        void act(() => sendJson(`/api/v1/farms/${farmId}/members/${m.userId}`, "DELETE"), `${m.name} was removed from the farm.`)
-                      }
+                      onClick={() => {
+                        if (!window.confirm(`Remove ${m.name} from this farm? Their past entries stay in the records.`)) return;
+                        void act(() => sendJson(`/api/v1/farms/${farmId}/members/${m.userId}`, "DELETE"), `${m.name} was removed from the farm.`);
+                      }}
                     >
                       Remove
                     </Button>
