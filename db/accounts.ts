@@ -1,0 +1,277 @@
+import "server-only";
+import type { Knex } from "knex";
+import { db } from "./knex";
+
+/** The stored water account (account_days): bulk rewrites by the recompute job, and the reads of the API. */
+
+/** Rows for account_days in columns, as the bulk insert takes them. */
+export interface AccountColumns {
+  fieldId: string[];
+  date: string[];
+  plantingId: string[];
+  etoMm: number[];
+  kc: number[];
+  etcMm: number[];
+  ks: number[];
+  etActualMm: number[];
+  rainMm: number[];
+  runoffMm: number[];
+  effectiveRainMm: number[];
+  irrigationGrossMm: number[];
+  irrigationNetMm: number[];
+  capillaryRiseMm: number[];
+  deepPercolationMm: number[];
+  depletionStartMm: number[];
+  depletionEndMm: number[];
+  tawMm: number[];
+  rawMm: number[];
+  pAdjusted: number[];
+  rootDepthM: number[];
+  soilCheckReset: boolean[];
+  provenance: string[];
+}
+
+/** Rows per INSERT statement: large enough to amortise the round trip, small enough to keep memory flat. */
+const INSERT_CHUNK = 25_000;
+
+/** `{a,b,c}` array literal of numbers for a float8[] parameter (faster than letting the driver quote each). */
+function floatArray(values: readonly number[], from: number, to: number): string {
+  return `{${values.slice(from, to).join(",")}}`;
+}
+
+function textArray(values: readonly string[], from: number, to: number): string {
+  let s = "{";
+  for (let i = from; i < to; i++) {
+    if (i > from) s += ",";
+    s += `"${values[i]!.replace(/\\/g, "\\\\").replace(/"/g, '\\"')}"`;
+  }
+  return s + "}";
+}
+
+const FLOAT_COLUMNS = [
+  ["eto_mm", "etoMm"],
+  ["kc", "kc"],
+  ["etc_mm", "etcMm"],
+  ["ks", "ks"],
+  ["et_actual_mm", "etActualMm"],
+  ["rain_mm", "rainMm"],
+  ["runoff_mm", "runoffMm"],
+  ["effective_rain_mm", "effectiveRainMm"],
+  ["irrigation_gross_mm", "irrigationGrossMm"],
+  ["irrigation_net_mm", "irrigationNetMm"],
+  ["capillary_rise_mm", "capillaryRiseMm"],
+  ["deep_percolation_mm", "deepPercolationMm"],
+  ["depletion_start_mm", "depletionStartMm"],
+  ["depletion_end_mm", "depletionEndMm"],
+  ["taw_mm", "tawMm"],
+  ["raw_mm", "rawMm"],
+  ["p_adjusted", "pAdjusted"],
+  ["root_depth_m", "rootDepthM"],
+] as const satisfies readonly (readonly [string, keyof AccountColumns])[];
+
+const INSERT_SQL =
+  `insert into account_days (field_id, date, planting_id, ${FLOAT_COLUMNS.map(([c]) => c).join(", ")}, soil_check_reset, provenance) ` +
+  `select field_id, date, planting_id, ${FLOAT_COLUMNS.map(([c]) => c).join(", ")}, soil_check_reset, provenance::jsonb ` +
+  `from unnest(?::uuid[], ?::date[], ?::uuid[], ${FLOAT_COLUMNS.map(() => "?::float8[]").join(", ")}, ?::boolean[], ?::text[]) ` +
+  `as v(field_id, date, planting_id, ${FLOAT_COLUMNS.map(([c]) => c).join(", ")}, soil_check_reset, provenance)`;
+
+/**
+ * Replaces fields' account days: deletes each field's days from its date on, then inserts `rows` in
+ * multi-row statements. Call inside the transaction that also clears the fields' dirty marks.
+ */
+export async function replaceAccountDays(
+  trx: Knex.Transaction,
+  deleteFrom: readonly { fieldId: string; fromDate: string }[],
+  rows: AccountColumns,
+): Promise<number> {
+  if (deleteFrom.length > 0) {
+    await trx.raw(
+      "delete from account_days a using unnest(?::uuid[], ?::date[]) as v(field_id, from_date) where a.field_id = v.field_id and a.date >= v.from_date",
+      [`{${deleteFrom.map((d) => d.fieldId).join(",")}}`, `{${deleteFrom.map((d) => d.fromDate).join(",")}}`],
+    );
+  }
+  const total = rows.fieldId.length;
+  for (let from = 0; from < total; from += INSERT_CHUNK) {
+    const to = Math.min(total, from + INSERT_CHUNK);
+    await trx.raw(INSERT_SQL, [
+      `{${rows.fieldId.slice(from, to).join(",")}}`,
+      `{${rows.date.slice(from, to).join(",")}}`,
+      `{${rows.plantingId.slice(from, to).join(",")}}`,
+      ...FLOAT_COLUMNS.map(([, key]) => floatArray(rows[key] as number[], from, to)),
+      `{${rows.soilCheckReset.slice(from, to).map((b) => (b ? "t" : "f")).join(",")}}`,
+      textArray(rows.provenance, from, to),
+    ]);
+  }
+  return total;
+}
+
+/**
+ * Clears the dirty mark of fields whose mark was not touched since it was read (compare-and-set on the
+ * counter every marking bumps). Returns the ids cleared; the others stay dirty for the next run.
+ */
+export async function clearDirtyMarks(trx: Knex | Knex.Transaction, marks: readonly { fieldId: string; seq: number }[]): Promise<string[]> {
+  if (marks.length === 0) return [];
+  const res = await trx.raw<{ rows: { id: string }[] }>(
+    "update fields f set account_dirty_from = null from unnest(?::uuid[], ?::bigint[]) as v(id, seq) " +
+      "where f.id = v.id and f.account_dirty_seq = v.seq returning f.id",
+    [`{${marks.map((m) => m.fieldId).join(",")}}`, `{${marks.map((m) => m.seq).join(",")}}`],
+  );
+  return res.rows.map((r) => r.id);
+}
+
+/** The stored day before each field's rewrite: where its depletion is carried in from. */
+export async function carriedDepletions(
+  conn: Knex | Knex.Transaction,
+  wanted: readonly { fieldId: string; date: string }[],
+): Promise<Map<string, { depletionEndMm: number; plantingId: string | null }>> {
+  const out = new Map<string, { depletionEndMm: number; plantingId: string | null }>();
+  if (wanted.length === 0) return out;
+  const res = await conn.raw<{ rows: { field_id: string; depletion_end_mm: number; planting_id: string | null }[] }>(
+    "select a.field_id, a.depletion_end_mm, a.planting_id from account_days a " +
+      "join unnest(?::uuid[], ?::date[]) as v(field_id, date) on a.field_id = v.field_id and a.date = v.date",
+    [`{${wanted.map((w) => w.fieldId).join(",")}}`, `{${wanted.map((w) => w.date).join(",")}}`],
+  );
+  for (const r of res.rows) out.set(r.field_id, { depletionEndMm: Number(r.depletion_end_mm), plantingId: r.planting_id });
+  return out;
+}
+
+/** One stored day of a field's account, as the API shows it. */
+export interface StoredAccountDay {
+  date: string;
+  plantingId: string | null;
+  etoMm: number | null;
+  kc: number | null;
+  etcMm: number | null;
+  ks: number | null;
+  etActualMm: number | null;
+  rainMm: number | null;
+  runoffMm: number | null;
+  effectiveRainMm: number | null;
+  irrigationGrossMm: number | null;
+  irrigationNetMm: number | null;
+  capillaryRiseMm: number | null;
+  deepPercolationMm: number | null;
+  depletionStartMm: number;
+  depletionEndMm: number;
+  tawMm: number | null;
+  rawMm: number | null;
+  pAdjusted: number | null;
+  rootDepthM: number | null;
+  soilCheckReset: boolean;
+  provenance: Record<string, unknown>;
+  computedAt: string;
+}
+
+type Row = Record<string, unknown>;
+const n = (v: unknown): number | null => (v === null || v === undefined ? null : Number(v));
+
+export function toStoredAccountDay(r: Row): StoredAccountDay {
+  return {
+    date: String(r.date),
+    plantingId: (r.planting_id as string | null) ?? null,
+    etoMm: n(r.eto_mm),
+    kc: n(r.kc),
+    etcMm: n(r.etc_mm),
+    ks: n(r.ks),
+    etActualMm: n(r.et_actual_mm),
+    rainMm: n(r.rain_mm),
+    runoffMm: n(r.runoff_mm),
+    effectiveRainMm: n(r.effective_rain_mm),
+    irrigationGrossMm: n(r.irrigation_gross_mm),
+    irrigationNetMm: n(r.irrigation_net_mm),
+    capillaryRiseMm: n(r.capillary_rise_mm),
+    deepPercolationMm: n(r.deep_percolation_mm),
+    depletionStartMm: Number(r.depletion_start_mm),
+    depletionEndMm: Number(r.depletion_end_mm),
+    tawMm: n(r.taw_mm),
+    rawMm: n(r.raw_mm),
+    pAdjusted: n(r.p_adjusted),
+    rootDepthM: n(r.root_depth_m),
+    soilCheckReset: Boolean(r.soil_check_reset),
+    provenance: (r.provenance as Record<string, unknown>) ?? {},
+    computedAt: r.computed_at instanceof Date ? r.computed_at.toISOString() : String(r.computed_at),
+  };
+}
+
+/** A field's account days from `from` to `to`, oldest first. */
+export async function listAccountDays(fieldId: string, from: string, to: string, conn: Knex = db): Promise<StoredAccountDay[]> {
+  const rows = (await conn("account_days").where("field_id", fieldId).whereBetween("date", [from, to]).orderBy("date")) as Row[];
+  return rows.map(toStoredAccountDay);
+}
+
+/** The latest stored days of a field (newest first). */
+export async function latestAccountDays(fieldId: string, limit: number, conn: Knex = db): Promise<StoredAccountDay[]> {
+  const rows = (await conn("account_days").where("field_id", fieldId).orderBy("date", "desc").limit(limit)) as Row[];
+  return rows.map(toStoredAccountDay);
+}
+
+/** The latest stored day and the recent mean ETo of each of a farm's fields, for outlooks and the plan. */
+export async function latestDaysOfFarm(
+  farmId: string,
+  recentDays: number,
+  conn: Knex = db,
+): Promise<Map<string, { date: string; depletionEndMm: number; plantingId: string | null; recentEtoMm: number[] }>> {
+  const res = await conn.raw<{ rows: { field_id: string; date: string; depletion_end_mm: number; planting_id: string | null; recent: number[] }[] }>(
+    `select f.id as field_id, a.date, a.depletion_end_mm, a.planting_id, r.recent
+       from fields f
+       join lateral (select date, depletion_end_mm, planting_id from account_days where field_id = f.id order by date desc limit 1) a on true
+       join lateral (select array_agg(eto_mm order by date) as recent from account_days
+                      where field_id = f.id and date > a.date - ?::int and eto_mm is not null) r on true
+      where f.farm_id = ? and f.archived_at is null`,
+    [recentDays, farmId],
+  );
+  const out = new Map<string, { date: string; depletionEndMm: number; plantingId: string | null; recentEtoMm: number[] }>();
+  for (const r of res.rows) {
+    out.set(r.field_id, {
+      date: String(r.date),
+      depletionEndMm: Number(r.depletion_end_mm),
+      plantingId: r.planting_id,
+      recentEtoMm: (r.recent ?? []).map(Number),
+    });
+  }
+  return out;
+}
+
+/** One field on the farm map. */
+export interface FieldStatusRow {
+  id: string;
+  name: string;
+  dirtyFrom: string | null;
+  lastDate: string | null;
+  depletionMm: number | null;
+  tawMm: number | null;
+  rawMm: number | null;
+  mad: number | null;
+  /** mean crop ET of the last seven stored days, mm/day */
+  recentEtcMm: number | null;
+}
+
+/**
+ * Every live field of a farm with its latest stored day and the mean crop ET of the week before it,
+ * in one statement (two index probes per field on the account's primary key).
+ */
+export async function farmStatusRows(farmId: string, conn: Knex = db): Promise<FieldStatusRow[]> {
+  const res = await conn.raw<{ rows: Row[] }>(
+    `select f.id, f.name, f.account_dirty_from, a.date, a.depletion_end_mm, a.taw_mm, a.raw_mm, p.mad, r.etc
+       from fields f
+       left join lateral (select date, depletion_end_mm, taw_mm, raw_mm, planting_id from account_days
+                           where field_id = f.id order by date desc limit 1) a on true
+       left join plantings p on p.id = a.planting_id
+       left join lateral (select avg(etc_mm) as etc from account_days
+                           where field_id = f.id and date > a.date - 7 and date <= a.date) r on true
+      where f.farm_id = ? and f.archived_at is null
+      order by f.name`,
+    [farmId],
+  );
+  return res.rows.map((r) => ({
+    id: String(r.id),
+    name: String(r.name),
+    dirtyFrom: (r.account_dirty_from as string | null) ?? null,
+    lastDate: (r.date as string | null) ?? null,
+    depletionMm: n(r.depletion_end_mm),
+    tawMm: n(r.taw_mm),
+    rawMm: n(r.raw_mm),
+    mad: n(r.mad),
+    recentEtcMm: n(r.etc),
+  }));
+}
