@@ -11,6 +11,7 @@ import { say, fail } from "./setup/log";
 import { run, asAdmin } from "./setup/shell";
 import { RUN_PORTS, TEST_PORTS, type Ports } from "./setup/ports";
 import { startProcess, stopAll, waitForHttp } from "./setup/processes";
+import { ensureLocalCert } from "./fakes/tls";
 
 const NODE = process.execPath;
 const TSX = ["--import", "tsx"];
@@ -25,8 +26,9 @@ interface Setup {
 }
 
 /** Secrets, database and the environment every child process gets. */
-function prepare(ports: Ports): Setup {
+async function prepare(ports: Ports): Promise<Setup> {
   const secrets = ensureSecrets();
+  const localCert = await ensureLocalCert();
   let urls: { main: string; test: string };
   const userUrl = process.env.DATABASE_URL;
   if (userUrl) {
@@ -53,6 +55,8 @@ function prepare(ports: Ports): Setup {
     FORECAST_API_URL: process.env.FORECAST_API_URL ?? `http://127.0.0.1:${ports.forecast}`,
     FAKE_FORECAST_PORT: String(ports.forecast),
     FAKE_PUSH_PORT: String(ports.push),
+    // The local fakes that speak HTTPS use this certificate; every Node process started here trusts it.
+    NODE_EXTRA_CA_CERTS: process.env.NODE_EXTRA_CA_CERTS ?? localCert,
   };
   return { env, urls };
 }
@@ -129,7 +133,7 @@ function printSignIns(baseUrl: string): void {
 
 async function startApp(dev: boolean): Promise<void> {
   onInterrupt();
-  const { env, urls } = prepare(RUN_PORTS);
+  const { env, urls } = await prepare(RUN_PORTS);
   const appEnv = { ...env, DATABASE_URL: urls.main };
   say("migrating the database");
   migrate(appEnv);
@@ -146,7 +150,7 @@ async function startApp(dev: boolean): Promise<void> {
 
 async function startWorker(): Promise<void> {
   onInterrupt();
-  const { env, urls } = prepare(RUN_PORTS);
+  const { env, urls } = await prepare(RUN_PORTS);
   const worker = startProcess("worker", NODE, [...SERVER_CODE, "scripts/worker.ts"], { ...env, DATABASE_URL: urls.main });
   worker.on("exit", (code) => void shutdown(code ?? 1));
 }
@@ -161,7 +165,7 @@ function ensureChromium(): void {
 
 async function runTests(): Promise<void> {
   onInterrupt();
-  const { env, urls } = prepare(TEST_PORTS);
+  const { env, urls } = await prepare(TEST_PORTS);
   const testEnv: NodeJS.ProcessEnv = { ...env, DATABASE_URL: urls.test, ROOTBANK_TEST: "1" };
   if (cluster) recreateDatabase(cluster, "rootbank_test");
   ensureChromium();
@@ -206,7 +210,7 @@ async function runTests(): Promise<void> {
 
 async function runBench(): Promise<void> {
   onInterrupt();
-  const { env, urls } = prepare(TEST_PORTS);
+  const { env, urls } = await prepare(TEST_PORTS);
   const benchEnv: NodeJS.ProcessEnv = { ...env, DATABASE_URL: urls.test, NODE_ENV: "production" };
   const files = existsSync("tests/bench") ? readdirSync("tests/bench").filter((f) => f.endsWith(".bench.ts")).sort() : [];
   let status = 0;
