@@ -49,8 +49,11 @@ beforeAll(async () => {
 afterAll(async () => {
   const g = globalThis as { rootbankBoss?: Promise<PgBoss> };
   if (g.rootbankBoss) await (await g.rootbankBoss).stop({ graceful: false, wait: true });
-  // The farms' fields and plantings go with them; then nothing holds the fixture library rows.
-  await db("farms").whereIn("id", [team.farmId, otherFarmId]).delete();
+  // Plantings and fields first: they hold soils and crops without a cascade, so a farm cannot take them in one go.
+  const farms = [team.farmId, otherFarmId];
+  await db("plantings").whereIn("field_id", db("fields").whereIn("farm_id", farms).select("id")).delete();
+  await db("fields").whereIn("farm_id", farms).delete();
+  await db("farms").whereIn("id", farms).delete();
   await db("soils").where({ id: librarySoilId }).delete();
   await db("crops").where({ id: libraryCropId }).delete();
   await db.destroy();
