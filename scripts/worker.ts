@@ -4,7 +4,12 @@
  */
 import { db } from "@/db/knex";
 import { runMaintenance } from "@/lib/jobs/maintenance";
+import { runNightly, runNightlyTick } from "@/lib/jobs/nightly";
 import { JOBS, queue } from "@/lib/jobs/queue";
+import { runRecomputeJob, type RecomputeJobData } from "@/lib/jobs/recompute";
+
+/** Recomputes run side by side per worker process: a farm's rewrite is mostly database time. */
+const RECOMPUTE_CONCURRENCY = 2;
 
 async function main(): Promise<void> {
   const boss = await queue();
@@ -12,6 +17,22 @@ async function main(): Promise<void> {
   await boss.work(JOBS.maintenance, async () => {
     const removed = await runMaintenance();
     console.log(`maintenance: removed ${JSON.stringify(removed)}`);
+  });
+
+  // pg-boss 10 runs one job at a time per work() call, so concurrency is several registrations.
+  for (let k = 0; k < RECOMPUTE_CONCURRENCY; k++) {
+    await boss.work<RecomputeJobData>(JOBS.recompute, async ([job]) => {
+      if (job) await runRecomputeJob(job.data);
+    });
+  }
+  await boss.work<{ farmId: string }>(JOBS.nightly, async ([job]) => {
+    if (job) await runNightly(job.data.farmId);
+  });
+  // On the hour: farms whose local time is then 02:xx get their night (zones with half-hour offsets too).
+  await boss.schedule(JOBS.nightlyTick, "0 * * * *");
+  await boss.work(JOBS.nightlyTick, async () => {
+    const farms = await runNightlyTick();
+    if (farms.length) console.log(`nightly: queued ${farms.length} farm(s)`);
   });
   console.log("worker: waiting for jobs");
 

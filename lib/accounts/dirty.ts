@@ -34,3 +34,18 @@ export async function inputsChanged(farmId: string, target: { fieldIds: readonly
   await markFieldsDirty(db, target, fromDate);
   await requestRecompute(farmId);
 }
+
+/**
+ * Marks every live field of a farm dirty from the first sowing of its plantings (a full rewrite), or
+ * from today for a field without plantings so its mark is cleared by the next run. Returns the count.
+ */
+export async function markSeasonDirty(trx: Knex | Knex.Transaction, farmId: string): Promise<number> {
+  return trx("fields as f")
+    .where("f.farm_id", farmId)
+    .whereNull("f.archived_at")
+    .update({
+      account_dirty_from: trx.raw(
+        "least(coalesce(f.account_dirty_from, 'infinity'::date), coalesce((select min(p.planting_date) from plantings p where p.field_id = f.id), current_date))",
+      ),
+    });
+}

@@ -9,6 +9,8 @@ export const JOBS = {
   recompute: "recompute",
   /** per farm, at its local night: add the new day, refresh forecast and outlook, then alerts */
   nightly: "nightly",
+  /** hourly: queues `nightly` for the farms whose local night it is (pg-boss keeps one schedule per queue) */
+  nightlyTick: "nightly-tick",
 } as const;
 
 const globalForBoss = globalThis as unknown as { rootbankBoss?: Promise<PgBoss> };
@@ -23,6 +25,7 @@ export function queue(): Promise<PgBoss> {
     await boss.createQueue(JOBS.maintenance, { name: JOBS.maintenance, policy: "standard" });
     await boss.createQueue(JOBS.recompute, { name: JOBS.recompute, policy: "stately" });
     await boss.createQueue(JOBS.nightly, { name: JOBS.nightly, policy: "stately" });
+    await boss.createQueue(JOBS.nightlyTick, { name: JOBS.nightlyTick, policy: "standard" });
     return boss;
   })();
   return globalForBoss.rootbankBoss;

@@ -1,0 +1,84 @@
+import "server-only";
+import { TZDate } from "@date-fns/tz";
+import { db } from "@/db/knex";
+import { markFieldsDirty } from "@/lib/accounts/dirty";
+import { farmOutlooks, type FieldOutlook } from "@/lib/accounts/outlook";
+import { recomputeFarm, type RecomputeResult } from "@/lib/accounts/recompute";
+import { farmStatus } from "@/lib/accounts/status";
+import { farmToday } from "@/lib/farm-time";
+import { addDaysIso } from "@/lib/waterbalance";
+import { JOBS, queue } from "./queue";
+
+/**
+ * The night's work per farm, at about 02:00 in the farm's own time zone (after the day's last manual
+ * readings are in, before the morning's decisions): add the day just ended to every account, refresh the
+ * outlook, then hand over to the alert hook.
+ */
+
+/** Local hour the nightly run starts at. */
+export const NIGHTLY_LOCAL_HOUR = 2;
+/** Days the nightly outlook looks ahead. */
+export const NIGHTLY_OUTLOOK_DAYS = 7;
+
+/** Farms whose local hour is `hour` at `now` (an hourly tick picks each farm once a night). */
+export async function farmsAtLocalHour(hour: number, now: Date = new Date()): Promise<string[]> {
+  const farms = (await db("farms").select("id", "time_zone")) as { id: string; time_zone: string }[];
+  return farms.filter((f) => new TZDate(now.getTime(), f.time_zone).getHours() === hour).map((f) => f.id);
+}
+
+/** The hourly tick: queues one nightly job for each farm whose night it is. */
+export async function runNightlyTick(now: Date = new Date()): Promise<string[]> {
+  const farmIds = await farmsAtLocalHour(NIGHTLY_LOCAL_HOUR, now);
+  const boss = await queue();
+  for (const farmId of farmIds) await boss.send(JOBS.nightly, { farmId }, { singletonKey: farmId, retryLimit: 2 });
+  return farmIds;
+}
+
+export interface NightlyResult {
+  recompute: RecomputeResult;
+  outlooks: FieldOutlook[];
+  alerts: AlertNote[];
+}
+
+/** One farm's night: mark every field dirty from yesterday, recompute, outlook, alerts. */
+export async function runNightly(farmId: string, today?: string): Promise<NightlyResult> {
+  const farm = (await db("farms").where({ id: farmId }).first("time_zone")) as { time_zone: string } | undefined;
+  if (!farm) throw new Error(`nightly: no farm ${farmId}`);
+  const localToday = today ?? farmToday(farm.time_zone);
+  await markFieldsDirty(db, { farmId }, addDaysIso(localToday, -1));
+  const recompute = await recomputeFarm(farmId, { today: localToday });
+  const outlooks = (await farmOutlooks(farmId, NIGHTLY_OUTLOOK_DAYS))?.outlooks ?? [];
+  const alerts = await afterNightly(farmId, outlooks);
+  return { recompute, outlooks, alerts };
+}
+
+/** A field worth telling someone about after the night's run. */
+export interface AlertNote {
+  fieldId: string;
+  name: string;
+  kind: "stressed" | "due" | "due-soon";
+  /** the outlook's first day at the trigger, for due-soon */
+  triggerDate: string | null;
+}
+
+/**
+ * Where alerts plug in. For now it works out which fields reached their trigger (or will within two days
+ * by the outlook) and logs them; alert rules and notifications will take this list.
+ */
+export async function afterNightly(farmId: string, outlooks: readonly FieldOutlook[] = []): Promise<AlertNote[]> {
+  const statuses = await farmStatus(farmId);
+  const outlookOf = new Map(outlooks.map((o) => [o.fieldId, o]));
+  const notes: AlertNote[] = [];
+  for (const s of statuses) {
+    if (s.band === "stressed" || s.band === "due") {
+      notes.push({ fieldId: s.id, name: s.name, kind: s.band, triggerDate: null });
+      continue;
+    }
+    const o = outlookOf.get(s.id);
+    if (o?.daysUntilTrigger !== null && o?.daysUntilTrigger !== undefined && o.daysUntilTrigger <= 1) {
+      notes.push({ fieldId: s.id, name: s.name, kind: "due-soon", triggerDate: o.triggerDate });
+    }
+  }
+  if (notes.length) console.log(`nightly ${farmId}: ${notes.map((n) => `${n.name} ${n.kind}${n.triggerDate ? ` ${n.triggerDate}` : ""}`).join(", ")}`);
+  return notes;
+}
