@@ -243,6 +243,11 @@ describe("reading photos", () => {
     expect(bytes.length).toBe(2048);
     expect([...bytes.subarray(0, JPEG_HEAD.length)]).toEqual(JPEG_HEAD);
     expect((await call(photo.GET, `${url()}/${params.readingId}/photo`, { as: other.owner, params })).status).toBe(404);
+    // removing the reading removes its photo from the store
+    const key = `farms/${team.farmId}/rain-readings/${params.readingId}.jpg`;
+    expect(await localDiskStore(uploadDir).get(key)).toBeDefined();
+    expect((await call(reading.DELETE, `${url()}/${params.readingId}`, { method: "DELETE", as: team.worker, params })).status).toBe(204);
+    expect(await localDiskStore(uploadDir).get(key)).toBeUndefined();
   });
 
   it("refuses a photo over 10 MB with 413 and a clear message, storing nothing", async () => {
