@@ -202,6 +202,7 @@ export function fieldRain(
   const ownWeight: GaugeWeight[] = field.gaugeId ? [{ gaugeId: field.gaugeId, distanceKm: 0, weight: 1 }] : [];
   const ownTotal: DayRainSource = { source: "own-gauge", gauges: ownWeight, missing: false, recorded: false };
   const ownRecorded: DayRainSource = { ...ownTotal, recorded: true };
+  const ownIsRecording = ctx.setup.gauges.some((g) => g.id === field.gaugeId && g.kind === "recording");
   const lat = field.centroidLat ?? ctx.setup.farm.latitude;
   const lon = field.centroidLon ?? ctx.setup.farm.longitude;
   const target = lat !== null && lon !== null ? { latitudeDeg: lat, longitudeDeg: lon } : null;
@@ -219,6 +220,10 @@ export function fieldRain(
         sources.push(mine.records ? ownRecorded : ownTotal);
         continue;
       }
+    } else if (ownIsRecording) {
+      // A recording gauge that logged no tip caught no rain: the field's own dry day, not a gap to fill.
+      sources.push(ownTotal);
+      continue;
     }
     if (!target || readings.length === 0) {
       sources.push(NO_RAIN_RECORD);
