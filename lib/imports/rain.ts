@@ -29,6 +29,8 @@ export function parseRainLogger(table: CsvTable, o: RainOptions, timeZone: strin
   const timeColumn = table.header[idx.time ?? 0] ?? "time";
   const depthColumn = idx.depth === undefined ? "depth" : (table.header[idx.depth] ?? "depth");
   const byInstant = new Map<number, RainRecordInput>();
+  // every well-stamped row ends an interval, even one with no rain or a bad depth
+  const boundaries: number[] = [];
   let zeroRows = 0;
   let merged = 0;
   for (const row of table.rows) {
@@ -39,6 +41,7 @@ export function parseRainLogger(table: CsvTable, o: RainOptions, timeZone: strin
       continue;
     }
     const atMs = stampToEpochMs(stamp, timeZone);
+    boundaries.push(atMs);
     let depthMm = tipMm;
     if (o.mode === "intervals") {
       const depthText = cell(row, idx.depth);
@@ -72,10 +75,14 @@ export function parseRainLogger(table: CsvTable, o: RainOptions, timeZone: strin
   }
   const records = [...byInstant.values()].sort((a, b) => a.atMs - b.atMs);
   if (o.mode === "intervals" && o.intervalS === undefined) {
-    for (let i = 1; i < records.length; i++) {
-      const gapS = Math.round(((records[i]?.atMs ?? 0) - (records[i - 1]?.atMs ?? 0)) / 1000);
-      const r = records[i];
-      if (r && gapS > 0 && gapS <= 86_400) r.intervalS = gapS;
+    // Without a stated interval, each one runs from the stamp before it (the first one's is unknown).
+    const stamps = [...new Set(boundaries)].sort((a, b) => a - b);
+    let j = 0;
+    for (const r of records) {
+      while (j + 1 < stamps.length && (stamps[j + 1] ?? Infinity) < r.atMs) j += 1;
+      const before = stamps[j];
+      const gapS = before !== undefined && before < r.atMs ? Math.round((r.atMs - before) / 1000) : 0;
+      if (gapS > 0 && gapS <= 86_400) r.intervalS = gapS;
     }
   }
   const warnings: string[] = [];
