@@ -49,7 +49,7 @@ async function readFeatures(bytes: Uint8Array, format: BoundaryFormat): Promise<
       const doc = new DOMParser().parseFromString(new TextDecoder().decode(bytes), "text/xml");
       return kml(doc).features;
     }
-    const parsed = await shp.parseZip(Buffer.from(bytes));
+    const parsed = await shp(Buffer.from(bytes));
     return (Array.isArray(parsed) ? parsed : [parsed]).flatMap((c) => c.features);
   } catch (err) {
     if (err instanceof AppError) throw err;
