@@ -155,8 +155,8 @@ export function buildFarmContext(setup: FarmSetup, obs: FarmObservations): FarmI
 }
 
 /** The station nearest the field (or the farm's first when locations are missing). */
-export function nearestStationId(ctx: FarmInputContext, field: AccountField): string | null {
-  const stations = ctx.setup.stations.filter((s) => ctx.weatherByStation.has(s.id));
+export function nearestStationId(ctx: FarmInputContext, field: AccountField, withWeatherOnly = true): string | null {
+  const stations = withWeatherOnly ? ctx.setup.stations.filter((s) => ctx.weatherByStation.has(s.id)) : ctx.setup.stations;
   if (stations.length === 0) return null;
   const lat = field.centroidLat ?? ctx.setup.farm.latitude;
   const lon = field.centroidLon ?? ctx.setup.farm.longitude;

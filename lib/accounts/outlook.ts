@@ -36,7 +36,7 @@ interface Latest {
 
 /** Forecast ETo by day from `from` for `days` days at the field's station (NaN where there is none). */
 function forecastFor(ctx: FarmInputContext, forecast: Map<string, Map<string, { etoMm: number; rainMm: number }>>, field: AccountField, from: string, days: number) {
-  const stationId = nearestStationId(ctx, field);
+  const stationId = nearestStationId(ctx, field, false);
   const byDate = stationId ? forecast.get(stationId) : undefined;
   const eto: number[] = [];
   const rain: number[] = [];
