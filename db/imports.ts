@@ -221,7 +221,7 @@ export interface UpsertSpec {
   audit: { farmId: string; userId: string; entity: string; reason: string };
 }
 
-const CHUNK = 500;
+const CHUNK = 250;
 
 /**
  * Writes rows so that a file imported twice changes nothing: rows whose key exists with the same values

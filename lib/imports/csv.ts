@@ -135,3 +135,16 @@ export function localDayLengthMs(date: string, timeZone: string): number {
   const [y, m, d] = date.split("-").map(Number) as [number, number, number];
   return new TZDate(y, m - 1, d + 1, timeZone).getTime() - new TZDate(y, m - 1, d, timeZone).getTime();
 }
+
+/** Told the share of a file's rows read so far (0-1); awaited, so a large file's progress is stored as it goes. */
+export type ReadProgress = (share: number) => Promise<void>;
+
+const PACE_ROWS = 2000;
+
+/** The rows, pausing every few thousand to report progress (and to let other requests run). */
+export async function* paced<T>(rows: readonly T[], progress?: ReadProgress): AsyncGenerator<T> {
+  for (let i = 0; i < rows.length; i++) {
+    if (progress && i > 0 && i % PACE_ROWS === 0) await progress(i / rows.length);
+    yield rows[i] as T;
+  }
+}

@@ -3,7 +3,7 @@
  * depth) and a backfill of manual gauge readings (gauge, when read, depth).
  */
 import { accountDayOfManualReading, accountDayOfReadingDate } from "@/lib/waterbalance";
-import { cell, mapColumns, parseNumber, parseStamp, stampToEpochMs, type CsvTable } from "./csv";
+import { cell, mapColumns, parseNumber, parseStamp, stampToEpochMs, paced, type CsvTable, type ReadProgress } from "./csv";
 import type { GaugeReadingsOptions, RainOptions } from "./options";
 import { ProblemList } from "./report";
 import { toMillimetres } from "./units";
@@ -23,7 +23,7 @@ export interface RainParse {
 }
 
 /** Reads a logger file. Tips at the very same instant are kept as one record of their summed depth. */
-export function parseRainLogger(table: CsvTable, o: RainOptions, timeZone: string, tipMm: number): RainParse {
+export async function parseRainLogger(table: CsvTable, o: RainOptions, timeZone: string, tipMm: number, progress?: ReadProgress): Promise<RainParse> {
   const idx = mapColumns<"time" | "depth">(table.header, o.columns);
   const problems = new ProblemList();
   const timeColumn = table.header[idx.time ?? 0] ?? "time";
@@ -33,7 +33,7 @@ export function parseRainLogger(table: CsvTable, o: RainOptions, timeZone: strin
   const boundaries: number[] = [];
   let zeroRows = 0;
   let merged = 0;
-  for (const row of table.rows) {
+  for await (const row of paced(table.rows, progress)) {
     const text = cell(row, idx.time);
     const stamp = text === undefined ? null : parseStamp(text, o.dateOrder);
     if (!stamp || !stamp.hasTime) {
@@ -109,19 +109,20 @@ export interface ReadingInput {
  * one with a date only is taken as read at the farm's boundary hour of that date, so it is the day
  * before's rain (the reading-day rule).
  */
-export function parseGaugeReadings(
+export async function parseGaugeReadings(
   table: CsvTable,
   o: GaugeReadingsOptions,
   farm: { timeZone: string; boundaryHour: number },
   gauges: readonly GaugeRef[],
-): { readings: ReadingInput[]; problems: ProblemList; rows: number } {
+  progress?: ReadProgress,
+): Promise<{ readings: ReadingInput[]; problems: ProblemList; rows: number }> {
   const idx = mapColumns<"gauge" | "time" | "depth">(table.header, o.columns);
   const name = (k: "gauge" | "time" | "depth") => table.header[idx[k] ?? 0] ?? k;
   const byKey = new Map(gauges.flatMap((g) => [[g.id.toLowerCase(), g.id] as const, [g.name.trim().toLowerCase(), g.id] as const]));
   const problems = new ProblemList();
   const seen = new Map<string, number>();
   const readings: ReadingInput[] = [];
-  for (const row of table.rows) {
+  for await (const row of paced(table.rows, progress)) {
     const gaugeText = cell(row, idx.gauge);
     const gaugeId = gaugeText === undefined ? undefined : byKey.get(gaugeText.toLowerCase());
     if (!gaugeId) problems.add({ line: row.line, column: name("gauge"), value: gaugeText ?? "", reason: gaugeText === undefined ? "missing gauge" : "no gauge of this farm has this name or id" });

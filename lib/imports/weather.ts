@@ -4,7 +4,7 @@
  * the day's extremes, RHmax and RHmin the extremes of humidity, wind the mean, solar radiation and rain
  * the sums over the day.
  */
-import { cell, mapColumns, parseNumber, parseStamp, stampToEpochMs, localDate, localDayLengthMs, type CsvTable, type CsvRow } from "./csv";
+import { cell, mapColumns, parseNumber, parseStamp, stampToEpochMs, localDate, localDayLengthMs, paced, type CsvTable, type ReadProgress, type CsvRow } from "./csv";
 import type { WeatherOptions } from "./options";
 import { ProblemList } from "./report";
 import { toCelsius, toMetresPerSecond, toMillimetres, toSolarMJm2 } from "./units";
@@ -102,18 +102,18 @@ function readRowValues(row: CsvRow, idx: Partial<Record<Column, number>>, header
 }
 
 /** Reads a weather file; `timeZone` is the farm's, for local time stamps of sub-daily files. */
-export function parseWeather(table: CsvTable, o: WeatherOptions, timeZone: string): WeatherParse {
+export async function parseWeather(table: CsvTable, o: WeatherOptions, timeZone: string, progress?: ReadProgress): Promise<WeatherParse> {
   const idx = mapColumns<Column>(table.header, o.columns);
-  return o.interval === "daily" ? parseDaily(table, o, idx) : parseHourly(table, o, idx, timeZone);
+  return o.interval === "daily" ? parseDaily(table, o, idx, progress) : parseHourly(table, o, idx, timeZone, progress);
 }
 
-function parseDaily(table: CsvTable, o: WeatherOptions, idx: Partial<Record<Column, number>>): WeatherParse {
+async function parseDaily(table: CsvTable, o: WeatherOptions, idx: Partial<Record<Column, number>>, progress?: ReadProgress): Promise<WeatherParse> {
   const problems = new ProblemList();
   const conv = converters(o, 86_400);
   const seen = new Map<string, number>();
   const days: WeatherDayInput[] = [];
   const dateColumn = table.header[idx.date ?? 0] ?? "date";
-  for (const row of table.rows) {
+  for await (const row of paced(table.rows, progress)) {
     const text = cell(row, idx.date);
     const stamp = text === undefined ? null : parseStamp(text, o.dateOrder);
     if (!stamp) {
@@ -180,14 +180,14 @@ function aggregate(date: string, b: DayBucket): WeatherDayInput {
   };
 }
 
-function parseHourly(table: CsvTable, o: WeatherOptions, idx: Partial<Record<Column, number>>, timeZone: string): WeatherParse {
+async function parseHourly(table: CsvTable, o: WeatherOptions, idx: Partial<Record<Column, number>>, timeZone: string, progress?: ReadProgress): Promise<WeatherParse> {
   const problems = new ProblemList();
   const periodMs = o.intervalMinutes * 60_000;
   const conv = converters(o, periodMs / 1000);
   const seen = new Map<number, number>();
   const buckets = new Map<string, DayBucket>();
   const dateColumn = table.header[idx.date ?? 0] ?? "date";
-  for (const row of table.rows) {
+  for await (const row of paced(table.rows, progress)) {
     const text = cell(row, idx.date);
     const stamp = text === undefined ? null : parseStamp(text, o.dateOrder);
     if (!stamp || !stamp.hasTime) {
