@@ -102,8 +102,9 @@ function median(xs: number[]): number {
 }
 
 /**
- * Each gauge against its neighbours on the same day: far from their median ratio, or dry when they were
- * wet. Two neighbours at least, so one odd gauge cannot make its only neighbour look wrong.
+ * Each gauge against the gauges around it on the same day: far from their median, or dry when they were
+ * wet. The median is taken over the gauge and its neighbours together, so one broken gauge cannot make
+ * a good one look odd; it needs two neighbours at least.
  */
 export function neighbourFlags(days: readonly GaugeDay[]): FlagCandidate[] {
   const L = QC_LIMITS;
@@ -116,16 +117,16 @@ export function neighbourFlags(days: readonly GaugeDay[]): FlagCandidate[] {
         (n) => n.gaugeId !== d.gaugeId && (!n.location || !d.location || distanceKm(n.location, d.location) <= L.neighbourKm),
       );
       if (neighbours.length < 2) continue;
-      const m = median(neighbours.map((n) => n.depthMm));
+      const m = median([d, ...neighbours].map((n) => n.depthMm));
       if (m < L.neighbourWetMm) continue;
       let rule: string | null = null;
       let message = "";
       if (d.depthMm === 0) {
         rule = "zero_when_neighbours_wet";
-        message = `no rain here while ${neighbours.length} neighbouring gauges had a median of ${m.toFixed(1)} mm`;
+        message = `no rain here while the ${neighbours.length + 1} gauges around had a median of ${m.toFixed(1)} mm`;
       } else if (d.depthMm / m < L.neighbourRatioLow || d.depthMm / m > L.neighbourRatioHigh) {
         rule = "neighbour_ratio";
-        message = `${d.depthMm.toFixed(1)} mm is ${(d.depthMm / m).toFixed(2)} × the neighbouring gauges' median of ${m.toFixed(1)} mm`;
+        message = `${d.depthMm.toFixed(1)} mm is ${(d.depthMm / m).toFixed(2)} × the median of ${m.toFixed(1)} mm across ${neighbours.length + 1} nearby gauges`;
       }
       if (rule) for (const id of d.entityIds) out.push({ entity: d.entity, entityId: id, date: d.date, rule, message });
     }

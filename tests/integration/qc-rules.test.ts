@@ -54,13 +54,14 @@ describe("gauges against their neighbours (common practice, no source)", () => {
     gaugeId, date: "2026-11-20", depthMm, location, entity: "rain_reading", entityIds: [`r-${gaugeId}`],
   });
 
-  it("flags a gauge far below its neighbours' median, and only that gauge", () => {
+  it("flags a gauge far below the local median, and only that gauge", () => {
     const flags = neighbourFlags([g("A", 20), g("B", 22), g("C", 18), g("D", 5)]);
     expect(flags.map((f) => [f.entityId, f.rule])).toEqual([["r-D", "neighbour_ratio"]]);
-    expect(flags[0]?.message).toContain("0.25 ×"); // 5 / median(20, 22, 18) = 5 / 20
+    expect(flags[0]?.message).toContain("0.26 ×"); // 5 / median(20, 22, 18, 5) = 5 / 19
   });
 
   it("flags a dry gauge when its neighbours were wet", () => {
+    // median(12, 9, 0) = 9: the dry gauge is flagged, the two wet ones are not dragged down by it
     expect(neighbourFlags([g("A", 12), g("B", 9), g("C", 0)]).map((f) => [f.entityId, f.rule])).toEqual([["r-C", "zero_when_neighbours_wet"]]);
   });
 
