@@ -259,6 +259,18 @@ describe("reading photos", () => {
     expect(await db("rain_readings").count("* as n").first()).toEqual(before);
   });
 
+  it("refuses an upload announced as over 10 MB before reading it (413)", async () => {
+    const body = form({ gaugeId, readAt: "2026-10-21T09:00:00+11:00", depthMm: "1" }, jpeg(1024));
+    const framed = new Request("http://x", { method: "POST", body });
+    const req = new NextRequest(`${BASE}${url()}`, {
+      method: "POST",
+      body: await framed.arrayBuffer(),
+      headers: { cookie: await sessionCookie(team.worker), "content-type": framed.headers.get("content-type") ?? "", "content-length": String(11 * 1024 * 1024) },
+    });
+    const res = await readings.POST(req, { params: Promise.resolve({ farmId: team.farmId }) });
+    expect(res.status).toBe(413);
+  });
+
   it("refuses a file that is not a photo, whatever type it claims", async () => {
     const fake = new File([new TextEncoder().encode("<html>not an image</html>")], "gauge.jpg", { type: "image/jpeg" });
     const res = await postForm(form({ gaugeId, readAt: "2026-10-22T09:00:00+11:00", depthMm: "1" }, fake));

@@ -14,13 +14,13 @@ async function readBody(req: Request): Promise<{ input: RainReadingInput; photo:
   if (!(req.headers.get("content-type") ?? "").startsWith("multipart/form-data")) {
     return { input: await readJson(req, rainReadingSchema), photo: null };
   }
+  const tooLarge = new AppError("payload_too_large", "The photo is larger than 10 MB. Send a smaller or more compressed photo.", { photo: "At most 10 MB" });
   // Refuse an oversized upload before reading it, when the client says how big it is.
   const length = Number(req.headers.get("content-length") ?? "0");
-  if (length > MAX_PHOTO_BYTES + MAX_FORM_OVERHEAD_BYTES) {
-    throw new AppError("payload_too_large", "The photo is larger than 10 MB. Send a smaller or more compressed photo.", { photo: "At most 10 MB" });
-  }
+  if (length > MAX_PHOTO_BYTES + MAX_FORM_OVERHEAD_BYTES) throw tooLarge;
   const form = await req.formData().catch(() => {
-    throw new AppError("bad_request", "The form data could not be read.");
+    // Next's proxy passes on only the first 10 MB of a body, so a cut-off form is an oversized one.
+    throw length > MAX_PHOTO_BYTES ? tooLarge : new AppError("bad_request", "The form data could not be read.");
   });
   const photo = form.get("photo");
   return { input: rainReadingSchema.parse(rainReadingFromForm(form)), photo: photo instanceof File && photo.size > 0 ? photo : null };
