@@ -182,6 +182,10 @@ describe("rain readings", () => {
     expect(entry).toMatchObject({ user_id: team.agronomist.id, actor: "user", reason: "decimal point missed" });
     expect(entry.before).toMatchObject({ depthMm: 25, rainDate: "2026-11-14" });
     expect(entry.after).toMatchObject({ depthMm: 2.5, rainDate: "2026-11-15" });
+    // moving it onto a day the gauge already has is the same plain 409 as a second reading
+    const clash = await call(reading.PATCH, `${url()}/${id}`, { method: "PATCH", as: team.worker, params, body: { rainDate: "2026-11-19", reason: "wrong day" } });
+    expect(clash.status).toBe(409);
+    expect(clash.body.error?.message).toMatch(/already has a reading for 2026-11-19/);
   });
 
   it("answers 404 for another farm's reading, a guessed id and a malformed id", async () => {
