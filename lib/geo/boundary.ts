@@ -1,6 +1,7 @@
 import { area } from "@turf/area";
 import type { MultiPolygon, Polygon, Position } from "geojson";
 import { z } from "zod";
+import { firstSelfCrossing } from "./self-crossing";
 
 /** A field's outline: GeoJSON (RFC 7946) Polygon or MultiPolygon, lon/lat in WGS84 degrees. */
 export type Boundary = Polygon | MultiPolygon;
@@ -24,9 +25,17 @@ const feature = z.object({ type: z.literal("Feature"), geometry, properties: z.u
 
 type Issue = { code: "custom"; message: string; path: (string | number)[] };
 
-/** Positions in range, rings of four or more positions that close on themselves, and some area inside. */
+/** More corners than any surveyed or walked field needs; a bound on the work one request may ask for. */
+export const MAX_BOUNDARY_POSITIONS = 10_000;
+
+/** Positions in range, rings of four or more positions that close without crossing themselves. */
 function checkRings(geom: Boundary, prefix: (string | number)[], addIssue: (issue: Issue) => void): void {
   const polygons: Position[][][] = geom.type === "Polygon" ? [geom.coordinates] : geom.coordinates;
+  const count = polygons.reduce((sum, rings) => sum + rings.reduce((s, r) => s + r.length, 0), 0);
+  if (count > MAX_BOUNDARY_POSITIONS) {
+    addIssue({ code: "custom", message: `A boundary may have at most ${MAX_BOUNDARY_POSITIONS} positions; simplify it`, path: prefix });
+    return;
+  }
   polygons.forEach((rings, p) => {
     rings.forEach((r, i) => {
       const at = [...prefix, "coordinates", ...(geom.type === "Polygon" ? [] : [p]), i];
@@ -47,6 +56,15 @@ function checkRings(geom: Boundary, prefix: (string | number)[], addIssue: (issu
       const last = r[r.length - 1]!;
       if (first[0] !== last[0] || first[1] !== last[1]) {
         addIssue({ code: "custom", message: "A ring must close: repeat its first position as its last", path: at });
+        return;
+      }
+      const crossing = firstSelfCrossing(r);
+      if (crossing) {
+        addIssue({
+          code: "custom",
+          message: `The boundary crosses itself (edges ${crossing[0] + 1} and ${crossing[1] + 1}); redraw it so no two edges cross`,
+          path: at,
+        });
       }
     });
   });

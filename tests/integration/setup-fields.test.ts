@@ -8,7 +8,7 @@ import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import * as fieldItem from "@/app/api/v1/farms/[farmId]/fields/[fieldId]/route";
 import * as fieldList from "@/app/api/v1/farms/[farmId]/fields/route";
 import { db } from "@/db/knex";
-import { boundaryAreaHa } from "@/lib/geo/boundary";
+import { boundaryAreaHa, boundarySchema } from "@/lib/geo/boundary";
 import { IBIS_FLAT, KESTREL_BEND } from "../../seeds/demo/farms";
 import { buildDemo } from "../../seeds/demo/scenario";
 import { call } from "../helpers/api";
@@ -148,6 +148,7 @@ describe("field area and centroid", () => {
       expect(Math.abs(boundaryAreaHa(boundary) - areaHa), String(row.name)).toBeLessThan(0.006);
       const ellipsoidHa = ellipsoidPlanarM2(boundary.coordinates[0]!) / 10_000;
       expect(Math.abs(areaHa / ellipsoidHa - 1), String(row.name)).toBeLessThan(0.0005);
+      expect(boundarySchema.safeParse(boundary).success, String(row.name)).toBe(true);
     }
     const first = rows[0]!;
     const res = await post({ name: `Seeded ${suffix}`, boundary: JSON.parse(String(first.boundary)) });
@@ -167,6 +168,8 @@ describe("field boundaries that are refused", () => {
     ["a line", "boundary.type", { type: "LineString", coordinates: ring }],
     ["a Feature of a point", "boundary.geometry.type", { type: "Feature", geometry: { type: "Point", coordinates: [146, -34.5] } }],
     ["corners on one line", "boundary", { type: "Polygon", coordinates: [[[146, -34.5], [146.01, -34.5], [146.02, -34.5], [146, -34.5]]] }],
+    ["a bow tie", "boundary.coordinates.0", { type: "Polygon", coordinates: [[[146, -34.5], [146.01, -34.49], [146.01, -34.5], [146, -34.49], [146, -34.5]]] }],
+    ["more positions than a field needs", "boundary", { type: "Polygon", coordinates: [Array.from({ length: 10_002 }, (_, i) => [146 + 0.01 * Math.cos((2 * Math.PI * i) / 10_001), -34.5 + 0.01 * Math.sin((2 * Math.PI * i) / 10_001)])] }],
     ["a position without latitude", "boundary.coordinates.0.0", { type: "Polygon", coordinates: [[[146], [146.01, -34.5], [146.01, -34.49], [146]]] }],
   ];
   it.each(cases)("%s (422 naming %s)", async (_label, path, boundary) => {
