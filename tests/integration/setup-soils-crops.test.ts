@@ -193,6 +193,7 @@ describe("soils", () => {
     expect(res.body.soil).toMatchObject({ thetaFc: 0.3, note: "probe calibration" });
     const audit = await auditOf("soil", soilId);
     expect(audit.map((a) => a.action)).toEqual(["create", "update"]);
+    // Before: FAO-56 Table 19, silt loam θFC 0.22-0.36, the middle 0.29 as the texture's default.
     expect(audit[1]).toMatchObject({ user_id: team.agronomist.id, before: { thetaFc: 0.29 }, after: { thetaFc: 0.3 } });
     expect(await db("fields").where({ id: fieldId }).first("account_dirty_from")).toEqual({ account_dirty_from: "2026-10-15" });
     const jobs = await db("jobs.job").where({ name: "recompute", singleton_key: team.farmId }).count({ n: "*" });
