@@ -1,39 +1,40 @@
+import { existsSync } from "node:fs";
+import path from "node:path";
 import type { Metadata } from "next";
+import { notFound } from "next/navigation";
 import { getFarm } from "@/db/farms";
-import { listFieldSummaries } from "@/db/fields";
+import { FarmMapView } from "@/components/map/farm-map-view";
 import { requireFarmPage } from "@/lib/auth/session";
+import { env } from "@/lib/env";
 import { farmToday } from "@/lib/farm-time";
+import { addDaysIso } from "@/lib/waterbalance";
 
-export const metadata: Metadata = { title: "Fields" };
+export const metadata: Metadata = { title: "Farm map" };
 
-export default async function FarmPage({ params }: { params: Promise<{ farmId: string }> }) {
+/** Gauges and stations show their last reading from this many days back (common practice, no source). */
+const READINGS_DAYS = 14;
+
+/**
+ * The tile URL the map uses, or null for the plain local background: a local URL whose folder under
+ * public/ is not there would only fill the map with broken images.
+ */
+function tileUrl(): string | null {
+  const url = env().MAP_TILE_URL;
+  if (!url.startsWith("/")) return url;
+  const folder = url.slice(0, url.indexOf("{") === -1 ? undefined : url.indexOf("{"));
+  return existsSync(path.join(process.cwd(), "public", folder)) ? url : null;
+}
+
+export default async function FarmMapPage({ params }: { params: Promise<{ farmId: string }> }) {
   const { farmId } = await params;
-  await requireFarmPage(farmId, "view");
-  const farm = (await getFarm(farmId))!;
+  const { user } = await requireFarmPage(farmId, "view");
+  const farm = await getFarm(farmId);
+  if (!farm) notFound();
   const today = farmToday(farm.timeZone);
-  const fields = await listFieldSummaries(farmId, today);
-  const totalHa = fields.reduce((sum, f) => sum + f.areaHa, 0);
   return (
-    <section aria-labelledby="fields-heading" className="flex flex-col gap-4">
-      <div className="flex flex-wrap items-baseline justify-between gap-x-3">
-        <h1 id="fields-heading" className="text-2xl font-bold">
-          Fields
-        </h1>
-        <p className="text-sm text-ink/70">
-          {fields.length} fields · {totalHa.toFixed(1)} ha · {today} ({farm.timeZone})
-        </p>
-      </div>
-      <ul className="grid gap-3 sm:grid-cols-2">
-        {fields.map((f) => (
-          <li key={f.id} className="rounded-2xl bg-white px-4 py-3 shadow-sm ring-1 ring-river-100">
-            <p className="text-lg font-bold">{f.name}</p>
-            <p className="text-sm text-ink/80">
-              {f.areaHa.toFixed(1)} ha · {f.cropName ?? "fallow"} · {f.soilName ?? "soil not set"}
-            </p>
-            <p className="text-sm text-ink/70">{f.systemName ?? "no irrigation system"}</p>
-          </li>
-        ))}
-      </ul>
-    </section>
+    // The map takes the screen below the farm header, edge to edge, out of the page's centred column.
+    <div className="relative left-1/2 -my-5 h-[calc(100dvh-7.5rem)] w-screen -translate-x-1/2">
+      <FarmMapView farmId={farmId} today={today} readingsFrom={addDaysIso(today, -READINGS_DAYS)} tileUrl={tileUrl()} initialUnits={user.unitSystem} />
+    </div>
   );
 }
