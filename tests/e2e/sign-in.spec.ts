@@ -7,7 +7,7 @@ for (const [role, email] of Object.entries(DEMO) as [keyof typeof DEMO, string][
   test(`${role} signs in and sees the farm with their role`, async ({ page }, info) => {
     await openKestrelBend(page, email);
     await expect(page.getByText(ROLE_LABEL[role]).first()).toBeVisible();
-    await expect(page.getByRole("heading", { name: "Fields" })).toBeVisible();
+    await expect(page.getByRole("heading", { name: "Farm map" })).toBeVisible();
     await page.screenshot({ path: `tests/artifacts/screens/${info.project.name}-farm-${role}.png`, fullPage: true });
   });
 }
