@@ -86,7 +86,16 @@ export function weatherColumns(d: DayValues): Record<string, string | number | n
   };
 }
 
-export const WEATHER_VALUE_COLUMNS = ["tmax_c", "tmin_c", "rh_max_pct", "rh_min_pct", "rh_mean_pct", "wind_ms", "solar_mj_m2", "rain_mm"];
+export const WEATHER_VALUE_COLUMNS = [
+  "tmax_c",
+  "tmin_c",
+  "rh_max_pct",
+  "rh_min_pct",
+  "rh_mean_pct",
+  "wind_ms",
+  "solar_mj_m2",
+  "rain_mm",
+];
 
 export interface ForecastStation {
   id: string;
@@ -105,29 +114,53 @@ export async function forecastStations(farmId: string): Promise<ForecastStation[
     .where("s.farm_id", farmId)
     .whereNull("s.archived_at")
     .orderBy("s.name")
-    .select("s.id", "s.name", db.raw("coalesce(s.latitude, f.latitude) as latitude"), db.raw("coalesce(s.longitude, f.longitude) as longitude"))) as {
+    .select(
+      "s.id",
+      "s.name",
+      db.raw("coalesce(s.latitude, f.latitude) as latitude"),
+      db.raw("coalesce(s.longitude, f.longitude) as longitude"),
+    )) as {
     id: string;
     name: string;
     latitude: number | null;
     longitude: number | null;
   }[];
-  return rows.flatMap((r) => (r.latitude === null || r.longitude === null ? [] : [{ id: r.id, name: r.name, latitude: r.latitude, longitude: r.longitude }]));
+  return rows.flatMap((r) =>
+    r.latitude === null || r.longitude === null
+      ? []
+      : [{ id: r.id, name: r.name, latitude: r.latitude, longitude: r.longitude }],
+  );
 }
 
 /**
  * Replaces a station's forecast from `fromDate` on with `days`. Forecast rows have their own kind, so an
  * observed day is never touched; readers take the observed row where both exist.
  */
-export async function replaceForecast(trx: Knex.Transaction, stationId: string, fromDate: string, days: DayValues[], source: string): Promise<{ removed: number; inserted: number }> {
-  const removed = await trx("weather_days").where({ station_id: stationId, kind: "forecast" }).where("date", ">=", fromDate).delete();
+export async function replaceForecast(
+  trx: Knex.Transaction,
+  stationId: string,
+  fromDate: string,
+  days: DayValues[],
+  source: string,
+): Promise<{ removed: number; inserted: number }> {
+  const removed = await trx("weather_days")
+    .where({ station_id: stationId, kind: "forecast" })
+    .where("date", ">=", fromDate)
+    .delete();
   if (days.length > 0) {
-    await trx("weather_days").insert(days.map((d) => ({ ...weatherColumns(d), station_id: stationId, kind: "forecast", source })));
+    await trx("weather_days").insert(
+      days.map((d) => ({ ...weatherColumns(d), station_id: stationId, kind: "forecast", source })),
+    );
   }
   return { removed, inserted: days.length };
 }
 
 /** A station's days in a range, one per date: the observed row where there is one, else the forecast. */
-export async function weatherPreferObserved(stationId: string, fromDate: string, toDate: string): Promise<WeatherDay[]> {
+export async function weatherPreferObserved(
+  stationId: string,
+  fromDate: string,
+  toDate: string,
+): Promise<WeatherDay[]> {
   const rows = (await db
     .select("*")
     .from(

@@ -114,7 +114,9 @@ export async function startImport(n: NewImport): Promise<{ record: ImportRecord;
 
 /** Records progress (0-1) outside the import's own transaction, so readers see it as it moves. */
 export async function setImportProgress(id: string, progress: number): Promise<void> {
-  await db("imports").where({ id, status: "processing" }).update({ progress: Math.min(1, Math.max(0, progress)) });
+  await db("imports")
+    .where({ id, status: "processing" })
+    .update({ progress: Math.min(1, Math.max(0, progress)) });
 }
 
 export async function finishImport(
@@ -124,18 +126,45 @@ export async function finishImport(
   counts: ImportCounts,
   report: ImportReport,
 ): Promise<void> {
-  await trx("imports").where({ id }).update({
-    status,
-    progress: 1,
-    total_rows: counts.rows,
-    accepted_rows: counts.accepted,
-    rejected_rows: counts.rejected,
-    inserted: counts.inserted,
-    updated: counts.updated,
-    unchanged: counts.unchanged,
-    report: JSON.stringify(report),
-    finished_at: trx.fn.now(),
-  });
+  await trx("imports")
+    .where({ id })
+    .update({
+      status,
+      progress: 1,
+      total_rows: counts.rows,
+      accepted_rows: counts.accepted,
+      rejected_rows: counts.rejected,
+      inserted: counts.inserted,
+      updated: counts.updated,
+      unchanged: counts.unchanged,
+      report: JSON.stringify(report),
+      finished_at: trx.fn.now(),
+    });
+}
+
+/**
+ * Stores what a committed import wrote while it is still running its checks; the import is "done" only
+ * when finishImport says so afterwards.
+ */
+export async function recordWritten(
+  trx: Knex.Transaction,
+  id: string,
+  counts: ImportCounts,
+  report: ImportReport,
+  progress: number,
+): Promise<void> {
+  await trx("imports")
+    .where({ id })
+    .update({
+      progress,
+      total_rows: counts.rows,
+      accepted_rows: counts.accepted,
+      rejected_rows: counts.rejected,
+      inserted: counts.inserted,
+      updated: counts.updated,
+      unchanged: counts.unchanged,
+      report: JSON.stringify(report),
+    });
 }
 
 export async function getImport(farmId: string, id: string): Promise<ImportRecord | undefined> {
@@ -143,13 +172,21 @@ export async function getImport(farmId: string, id: string): Promise<ImportRecor
   return row ? toImport(row) : undefined;
 }
 
-export async function listImports(farmId: string, page: { limit: number; offset: number }): Promise<{ rows: ImportRecord[]; total: number }> {
+export async function listImports(
+  farmId: string,
+  page: { limit: number; offset: number },
+): Promise<{ rows: ImportRecord[]; total: number }> {
   const rows = (await db("imports")
     .where({ farm_id: farmId })
-    .orderBy([{ column: "created_at", order: "desc" }, { column: "id", order: "desc" }])
+    .orderBy([
+      { column: "created_at", order: "desc" },
+      { column: "id", order: "desc" },
+    ])
     .limit(page.limit)
     .offset(page.offset)) as ImportRow[];
-  const [count] = (await db("imports").where({ farm_id: farmId }).count<{ n: string }[]>({ n: "*" })) as { n: string }[];
+  const [count] = (await db("imports").where({ farm_id: farmId }).count<{ n: string }[]>({ n: "*" })) as {
+    n: string;
+  }[];
   return { rows: rows.map(toImport), total: Number(count?.n ?? 0) };
 }
 
@@ -160,30 +197,56 @@ export interface FarmForImport {
 
 export async function farmForImport(farmId: string): Promise<FarmForImport> {
   const row = (await db("farms").where({ id: farmId }).first("time_zone", "rain_day_boundary_hour")) as
-    | { time_zone: string; rain_day_boundary_hour: number }
-    | undefined;
+    { time_zone: string; rain_day_boundary_hour: number } | undefined;
   if (!row) throw new Error(`farm ${farmId} not found`);
   return { timeZone: row.time_zone, boundaryHour: row.rain_day_boundary_hour };
 }
 
 /** A live station of the farm; another farm's station is as absent as one that does not exist. */
 export async function stationOfFarm(farmId: string, stationId: string): Promise<{ id: string } | undefined> {
-  return (await db("weather_stations").where({ farm_id: farmId, id: stationId }).whereNull("archived_at").first("id")) as { id: string } | undefined;
+  return (await db("weather_stations")
+    .where({ farm_id: farmId, id: stationId })
+    .whereNull("archived_at")
+    .first("id")) as { id: string } | undefined;
 }
 
-export async function gaugeOfFarm(farmId: string, gaugeId: string): Promise<{ id: string; resolutionMm: number | null } | undefined> {
-  const row = (await db("gauges").where({ farm_id: farmId, id: gaugeId }).whereNull("archived_at").first("id", "resolution_mm")) as
-    | { id: string; resolution_mm: number | null }
-    | undefined;
-  return row ? { id: row.id, resolutionMm: row.resolution_mm } : undefined;
+export async function gaugeOfFarm(
+  farmId: string,
+  gaugeId: string,
+): Promise<{ id: string; kind: "manual" | "recording"; resolutionMm: number | null } | undefined> {
+  const row = (await db("gauges")
+    .where({ farm_id: farmId, id: gaugeId })
+    .whereNull("archived_at")
+    .first("id", "kind", "resolution_mm")) as
+    { id: string; kind: "manual" | "recording"; resolution_mm: number | null } | undefined;
+  return row ? { id: row.id, kind: row.kind, resolutionMm: row.resolution_mm } : undefined;
+}
+
+/** The first planting date among some fields: a field's area matters to its account from then on. */
+export async function earliestPlanting(
+  trx: Knex.Transaction,
+  fieldIds: readonly string[],
+): Promise<string | null> {
+  if (fieldIds.length === 0) return null;
+  const row = (await trx("plantings")
+    .whereIn("field_id", fieldIds)
+    .min<{ first: string | null }>({ first: "planting_date" })
+    .first()) as { first: string | null } | undefined;
+  return row?.first ?? null;
 }
 
 export async function gaugesOfFarm(farmId: string): Promise<{ id: string; name: string }[]> {
-  return (await db("gauges").where({ farm_id: farmId }).whereNull("archived_at").select("id", "name")) as { id: string; name: string }[];
+  return (await db("gauges").where({ farm_id: farmId }).whereNull("archived_at").select("id", "name")) as {
+    id: string;
+    name: string;
+  }[];
 }
 
 export async function fieldsOfFarm(farmId: string): Promise<{ id: string; name: string }[]> {
-  return (await db("fields").where({ farm_id: farmId }).whereNull("archived_at").select("id", "name")) as { id: string; name: string }[];
+  return (await db("fields").where({ farm_id: farmId }).whereNull("archived_at").select("id", "name")) as {
+    id: string;
+    name: string;
+  }[];
 }
 
 type Cell = string | number | boolean | Date | object | null;
@@ -200,10 +263,14 @@ function canonical(value: unknown): string {
 }
 
 function same(a: Cell | undefined, b: Cell | undefined): boolean {
-  if (a instanceof Date || b instanceof Date) return new Date(a as Date).getTime() === new Date(b as Date).getTime();
-  if (typeof a === "object" && a !== null && typeof b === "object" && b !== null) return canonical(a) === canonical(b);
-  if (a instanceof Date || b instanceof Date) return new Date(a as Date).getTime() === new Date(b as Date).getTime();
-  if (typeof a === "number" && typeof b === "number") return Math.abs(a - b) <= 1e-9 * Math.max(1, Math.abs(a));
+  if (a instanceof Date || b instanceof Date)
+    return new Date(a as Date).getTime() === new Date(b as Date).getTime();
+  if (typeof a === "object" && a !== null && typeof b === "object" && b !== null)
+    return canonical(a) === canonical(b);
+  if (a instanceof Date || b instanceof Date)
+    return new Date(a as Date).getTime() === new Date(b as Date).getTime();
+  if (typeof a === "number" && typeof b === "number")
+    return Math.abs(a - b) <= 1e-9 * Math.max(1, Math.abs(a));
   return (a ?? null) === (b ?? null);
 }
 
@@ -235,13 +302,17 @@ export async function upsertUnchanged(
   progress: (done: number) => Promise<void> = async () => undefined,
 ): Promise<{ inserted: number; updated: number; unchanged: number; insertedIds: string[] }> {
   const result = { inserted: 0, updated: 0, unchanged: 0, insertedIds: [] as string[] };
-  const keyOf = (r: Row) => spec.keys.map((k) => (r[k] instanceof Date ? (r[k] as Date).getTime() : String(r[k]))).join("|");
+  const keyOf = (r: Row) =>
+    spec.keys.map((k) => (r[k] instanceof Date ? (r[k] as Date).getTime() : String(r[k]))).join("|");
   const keyed = (c: Cell | undefined) => (c === undefined ? null : c);
   for (let start = 0; start < rows.length; start += CHUNK) {
     const chunk = rows.slice(start, start + CHUNK);
     const existing = (await trx(spec.table)
       .where(spec.scope ?? {})
-      .whereIn(spec.keys, chunk.map((r) => spec.keys.map((k) => keyed(r[k])) as (string | number | Date | null)[]))
+      .whereIn(
+        spec.keys,
+        chunk.map((r) => spec.keys.map((k) => keyed(r[k])) as (string | number | Date | null)[]),
+      )
       .select("*")) as Row[];
     const byKey = new Map(existing.map((r) => [keyOf(r), r]));
     const inserts: Row[] = [];
@@ -253,7 +324,9 @@ export async function upsertUnchanged(
         result.unchanged += 1;
       } else {
         const change = Object.fromEntries(spec.values.map((c) => [c, row[c] ?? null]));
-        await trx(spec.table).where({ id: old.id }).update({ ...change, ...spec.onUpdate });
+        await trx(spec.table)
+          .where({ id: old.id })
+          .update({ ...change, ...spec.onUpdate });
         const before = Object.fromEntries(spec.values.map((c) => [c, old[c] ?? null]));
         await auditRow(trx, spec, String(old.id), before, change);
         result.updated += 1;
@@ -269,6 +342,12 @@ export async function upsertUnchanged(
   return result;
 }
 
-async function auditRow(trx: Knex.Transaction, spec: UpsertSpec, entityId: string, before: Row, after: Row): Promise<void> {
+async function auditRow(
+  trx: Knex.Transaction,
+  spec: UpsertSpec,
+  entityId: string,
+  before: Row,
+  after: Row,
+): Promise<void> {
   await audit({ ...spec.audit, action: "update", entityId, before, after }, trx);
 }

@@ -68,7 +68,11 @@ export async function up(knex: Knex): Promise<void> {
     t.check(inList("status", FLAG_STATUSES), [], "qc_flags_status_check");
     t.check("length(btrim(rule)) > 0", [], "qc_flags_rule_check");
     // Setting a value aside is a judgement someone must be able to explain later.
-    t.check("status <> 'overridden' or length(btrim(coalesce(reason, ''))) > 0", [], "qc_flags_override_reason_check");
+    t.check(
+      "status <> 'overridden' or length(btrim(coalesce(reason, ''))) > 0",
+      [],
+      "qc_flags_override_reason_check",
+    );
     t.check("(status = 'open') = (decided_at is null)", [], "qc_flags_decision_check");
   });
   await knex.raw(

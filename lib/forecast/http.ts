@@ -1,5 +1,10 @@
 import { z } from "zod";
-import { ForecastUnavailableError, type ForecastDay, type ForecastProvider, type ForecastQuery } from "./provider";
+import {
+  ForecastUnavailableError,
+  type ForecastDay,
+  type ForecastProvider,
+  type ForecastQuery,
+} from "./provider";
 
 /**
  * The forecast service's JSON API (version 1):
@@ -48,13 +53,19 @@ export class HttpForecastProvider implements ForecastProvider {
     url.searchParams.set("start", q.start);
     let res: Response;
     try {
-      res = await fetch(url, { signal: AbortSignal.timeout(this.timeoutMs), headers: { accept: "application/json" } });
+      res = await fetch(url, {
+        signal: AbortSignal.timeout(this.timeoutMs),
+        headers: { accept: "application/json" },
+      });
     } catch (err) {
-      throw new ForecastUnavailableError(`The forecast service did not answer (${err instanceof Error ? err.message : "network error"}).`);
+      throw new ForecastUnavailableError(
+        `The forecast service did not answer (${err instanceof Error ? err.message : "network error"}).`,
+      );
     }
     if (!res.ok) throw new ForecastUnavailableError(`The forecast service answered ${res.status}.`);
     const parsed = forecastResponseSchema.safeParse(await res.json().catch(() => null));
-    if (!parsed.success) throw new ForecastUnavailableError("The forecast service's answer was not in the expected form.");
+    if (!parsed.success)
+      throw new ForecastUnavailableError("The forecast service's answer was not in the expected form.");
     return parsed.data.days.map((d) => ({
       date: d.date,
       tmaxC: d.air_temp_max_c,

@@ -30,8 +30,15 @@ function storable(d: ForecastDay): DayValues {
   let rhMinPct = within(d.rhMinPct, 0, 100);
   if (rhMaxPct !== null && rhMinPct !== null && rhMinPct > rhMaxPct) [rhMaxPct, rhMinPct] = [null, null];
   return {
-    date: d.date, tmaxC, tminC, rhMaxPct, rhMinPct, rhMeanPct: null,
-    windMs: within(d.windMs, 0, 60), solarMJm2: within(d.solarMJm2, 0, 50), rainMm: within(d.rainMm, 0, 1000),
+    date: d.date,
+    tmaxC,
+    tminC,
+    rhMaxPct,
+    rhMinPct,
+    rhMeanPct: null,
+    windMs: within(d.windMs, 0, 60),
+    solarMJm2: within(d.solarMJm2, 0, 50),
+    rainMm: within(d.rainMm, 0, 1000),
   };
 }
 
@@ -59,19 +66,29 @@ export async function refreshForecast(
   const to = addDaysIso(from, days - 1);
   const stations = await forecastStations(farmId);
   if (stations.length === 0) {
-    throw new AppError("invalid", "The farm has no weather station with a location (or a farm location) to forecast for.");
+    throw new AppError(
+      "invalid",
+      "The farm has no weather station with a location (or a farm location) to forecast for.",
+    );
   }
   const fetched: { station: (typeof stations)[number]; values: DayValues[] }[] = [];
   for (const station of stations) {
     let got: ForecastDay[];
     try {
-      got = await provider.daily({ latitude: station.latitude, longitude: station.longitude, days, start: from });
+      got = await provider.daily({
+        latitude: station.latitude,
+        longitude: station.longitude,
+        days,
+        start: from,
+      });
     } catch (err) {
       if (err instanceof ForecastUnavailableError) throw new AppError("unavailable", err.message);
       throw err;
     }
     // Only the days asked for, once each: a service that strays outside them is not trusted there.
-    const unique = new Map(got.filter((d) => d.date >= from && d.date <= to).map((d) => [d.date, storable(d)]));
+    const unique = new Map(
+      got.filter((d) => d.date >= from && d.date <= to).map((d) => [d.date, storable(d)]),
+    );
     fetched.push({ station, values: [...unique.values()].sort((a, b) => a.date.localeCompare(b.date)) });
   }
   const result: RefreshResult = { from, to, stations: [] };
@@ -82,7 +99,14 @@ export async function refreshForecast(
     }
     await markFieldsDirty(trx, { farmId }, from);
     await audit(
-      { farmId, userId: opts.userId ?? null, action: "forecast.refresh", entity: "farm", entityId: farmId, after: result },
+      {
+        farmId,
+        userId: opts.userId ?? null,
+        action: "forecast.refresh",
+        entity: "farm",
+        entityId: farmId,
+        after: result,
+      },
       trx,
     );
   });

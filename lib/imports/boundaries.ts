@@ -34,14 +34,21 @@ export function detectFormat(fileName: string, bytes: Uint8Array, format?: Bound
   const head = new TextDecoder().decode(bytes.slice(0, 200)).trimStart();
   if (head.startsWith("<")) return "kml";
   if (head.startsWith("{")) return "geojson";
-  throw new AppError("invalid", "The boundary file is not GeoJSON, KML or a zipped shapefile.", { "options.format": "Say which format the file is" });
+  throw new AppError("invalid", "The boundary file is not GeoJSON, KML or a zipped shapefile.", {
+    "options.format": "Say which format the file is",
+  });
 }
 
 async function readFeatures(bytes: Uint8Array, format: BoundaryFormat): Promise<Feature<Geometry | null>[]> {
   try {
     if (format === "geojson") {
-      const json = JSON.parse(new TextDecoder().decode(bytes)) as { type?: string; features?: unknown; geometry?: unknown };
-      if (json.type === "FeatureCollection" && Array.isArray(json.features)) return json.features as Feature<Geometry | null>[];
+      const json = JSON.parse(new TextDecoder().decode(bytes)) as {
+        type?: string;
+        features?: unknown;
+        geometry?: unknown;
+      };
+      if (json.type === "FeatureCollection" && Array.isArray(json.features))
+        return json.features as Feature<Geometry | null>[];
       if (json.type === "Feature") return [json as Feature<Geometry | null>];
       return [{ type: "Feature", properties: {}, geometry: json as Geometry }];
     }
@@ -53,13 +60,25 @@ async function readFeatures(bytes: Uint8Array, format: BoundaryFormat): Promise<
     return (Array.isArray(parsed) ? parsed : [parsed]).flatMap((c) => c.features);
   } catch (err) {
     if (err instanceof AppError) throw err;
-    throw new AppError("invalid", `The file could not be read as ${format}: ${err instanceof Error ? err.message : "unknown error"}.`, { file: "Unreadable" });
+    throw new AppError(
+      "invalid",
+      `The file could not be read as ${format}: ${err instanceof Error ? err.message : "unknown error"}.`,
+      { file: "Unreadable" },
+    );
   }
 }
 
 function isPosition(p: unknown): p is Position {
-  return Array.isArray(p) && p.length >= 2 && typeof p[0] === "number" && typeof p[1] === "number" &&
-    Number.isFinite(p[0]) && Number.isFinite(p[1]) && Math.abs(p[0]) <= 180 && Math.abs(p[1]) <= 90;
+  return (
+    Array.isArray(p) &&
+    p.length >= 2 &&
+    typeof p[0] === "number" &&
+    typeof p[1] === "number" &&
+    Number.isFinite(p[0]) &&
+    Number.isFinite(p[1]) &&
+    Math.abs(p[0]) <= 180 &&
+    Math.abs(p[1]) <= 90
+  );
 }
 
 /** A polygon's rings in two dimensions, or the reason they are not a polygon. */
@@ -114,15 +133,30 @@ export async function parseBoundaries(
       const parts = g.coordinates.map(cleanPolygon);
       const bad = parts.find((p): p is string => typeof p === "string");
       if (bad) problems.add({ line, column: "geometry", reason: bad });
-      else [boundary, rings] = [{ type: "MultiPolygon", coordinates: parts as Position[][][] }, (parts[0] as Position[][]) ?? []];
+      else
+        [boundary, rings] = [
+          { type: "MultiPolygon", coordinates: parts as Position[][][] },
+          (parts[0] as Position[][]) ?? [],
+        ];
     }
     const earlier = seen.get(name.toLowerCase());
-    if (name && earlier !== undefined) problems.add({ line, column: o.nameProperty, value: name, reason: `the same name as feature ${earlier}` });
+    if (name && earlier !== undefined)
+      problems.add({
+        line,
+        column: o.nameProperty,
+        value: name,
+        reason: `the same name as feature ${earlier}`,
+      });
     if (!boundary || problems.has(line)) return;
     const areaHa = area(boundary) / 10_000;
     // The fields table's own limits: a field has some area and is smaller than a county.
     if (!(areaHa > 0) || areaHa > 100_000) {
-      problems.add({ line, column: "geometry", value: `${areaHa.toFixed(2)} ha`, reason: "area must be above 0 and at most 100 000 ha" });
+      problems.add({
+        line,
+        column: "geometry",
+        value: `${areaHa.toFixed(2)} ha`,
+        reason: "area must be above 0 and at most 100 000 ha",
+      });
       return;
     }
     seen.set(name.toLowerCase(), line);

@@ -34,17 +34,22 @@ export function readCsv(text: string): CsvTable {
  * The index of each mapped column in the header, matched without regard to case or surrounding spaces.
  * A mapping that names a column the file lacks is refused before anything is read.
  */
-export function mapColumns<K extends string>(header: string[], mapping: Partial<Record<K, string>>): Partial<Record<K, number>> {
+export function mapColumns<K extends string>(
+  header: string[],
+  mapping: Partial<Record<K, string>>,
+): Partial<Record<K, number>> {
   const lower = header.map((h) => h.toLowerCase());
   const found: Partial<Record<K, number>> = {};
   const missing: Record<string, string> = {};
   for (const [key, name] of Object.entries(mapping) as [K, string | undefined][]) {
     if (name === undefined) continue;
     const index = lower.indexOf(name.trim().toLowerCase());
-    if (index < 0) missing[`options.columns.${key}`] = `The file has no column "${name}" (it has: ${header.join(", ")})`;
+    if (index < 0)
+      missing[`options.columns.${key}`] = `The file has no column "${name}" (it has: ${header.join(", ")})`;
     else found[key] = index;
   }
-  if (Object.keys(missing).length > 0) throw new AppError("invalid", "The column mapping does not match the file.", missing);
+  if (Object.keys(missing).length > 0)
+    throw new AppError("invalid", "The column mapping does not match the file.", missing);
   return found;
 }
 
@@ -95,7 +100,8 @@ export function parseStamp(text: string, order: DateOrder): ParsedStamp | null {
   if (!validDate(y, mo, d)) return null;
   const date = `${String(y).padStart(4, "0")}-${String(mo).padStart(2, "0")}-${String(d).padStart(2, "0")}`;
   const rest = text.slice(m[0].length);
-  if (rest.trim() === "") return { date, hasTime: false, hour: 0, minute: 0, second: 0, ms: 0, offsetMin: null };
+  if (rest.trim() === "")
+    return { date, hasTime: false, hour: 0, minute: 0, second: 0, ms: 0, offsetMin: null };
   const t = TIME_PATTERN.exec(rest);
   if (!t) return null;
   const [hour, minute, second] = [Number(t[1]), Number(t[2]), Number(t[3] ?? 0)];
@@ -118,7 +124,9 @@ export function parseStamp(text: string, order: DateOrder): ParsedStamp | null {
 export function stampToEpochMs(stamp: ParsedStamp, timeZone: string): number {
   const [y, mo, d] = stamp.date.split("-").map(Number) as [number, number, number];
   if (stamp.offsetMin !== null) {
-    return Date.UTC(y, mo - 1, d, stamp.hour, stamp.minute, stamp.second, stamp.ms) - stamp.offsetMin * 60_000;
+    return (
+      Date.UTC(y, mo - 1, d, stamp.hour, stamp.minute, stamp.second, stamp.ms) - stamp.offsetMin * 60_000
+    );
   }
   // TZDate rolls 24:00 over to the next day's midnight, as the stamp means.
   return new TZDate(y, mo - 1, d, stamp.hour, stamp.minute, stamp.second, stamp.ms, timeZone).getTime();

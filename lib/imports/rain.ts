@@ -3,7 +3,16 @@
  * depth) and a backfill of manual gauge readings (gauge, when read, depth).
  */
 import { accountDayOfManualReading, accountDayOfReadingDate } from "@/lib/waterbalance";
-import { cell, mapColumns, parseNumber, parseStamp, stampToEpochMs, paced, type CsvTable, type ReadProgress } from "./csv";
+import {
+  cell,
+  mapColumns,
+  parseNumber,
+  parseStamp,
+  stampToEpochMs,
+  paced,
+  type CsvTable,
+  type ReadProgress,
+} from "./csv";
 import type { GaugeReadingsOptions, RainOptions } from "./options";
 import { ProblemList } from "./report";
 import { toMillimetres } from "./units";
@@ -23,7 +32,13 @@ export interface RainParse {
 }
 
 /** Reads a logger file. Tips at the very same instant are kept as one record of their summed depth. */
-export async function parseRainLogger(table: CsvTable, o: RainOptions, timeZone: string, tipMm: number, progress?: ReadProgress): Promise<RainParse> {
+export async function parseRainLogger(
+  table: CsvTable,
+  o: RainOptions,
+  timeZone: string,
+  tipMm: number,
+  progress?: ReadProgress,
+): Promise<RainParse> {
   const idx = mapColumns<"time" | "depth">(table.header, o.columns);
   const problems = new ProblemList();
   const timeColumn = table.header[idx.time ?? 0] ?? "time";
@@ -37,7 +52,12 @@ export async function parseRainLogger(table: CsvTable, o: RainOptions, timeZone:
     const text = cell(row, idx.time);
     const stamp = text === undefined ? null : parseStamp(text, o.dateOrder);
     if (!stamp || !stamp.hasTime) {
-      problems.add({ line: row.line, column: timeColumn, value: text ?? "", reason: text === undefined ? "missing time stamp" : "not a date and time" });
+      problems.add({
+        line: row.line,
+        column: timeColumn,
+        value: text ?? "",
+        reason: text === undefined ? "missing time stamp" : "not a date and time",
+      });
       continue;
     }
     const atMs = stampToEpochMs(stamp, timeZone);
@@ -47,12 +67,22 @@ export async function parseRainLogger(table: CsvTable, o: RainOptions, timeZone:
       const depthText = cell(row, idx.depth);
       const raw = depthText === undefined ? null : parseNumber(depthText);
       if (raw === null || raw < 0) {
-        problems.add({ line: row.line, column: depthColumn, value: depthText ?? "", reason: depthText === undefined ? "missing depth" : "not a depth (a number ≥ 0)" });
+        problems.add({
+          line: row.line,
+          column: depthColumn,
+          value: depthText ?? "",
+          reason: depthText === undefined ? "missing depth" : "not a depth (a number ≥ 0)",
+        });
         continue;
       }
       depthMm = toMillimetres(raw, o.units.rain);
       if (depthMm > 500) {
-        problems.add({ line: row.line, column: depthColumn, value: depthText, reason: "more than 500 mm in one interval" });
+        problems.add({
+          line: row.line,
+          column: depthColumn,
+          value: depthText,
+          reason: "more than 500 mm in one interval",
+        });
         continue;
       }
       if (depthMm === 0) {
@@ -62,7 +92,12 @@ export async function parseRainLogger(table: CsvTable, o: RainOptions, timeZone:
     }
     const existing = byInstant.get(atMs);
     if (existing && o.mode === "intervals") {
-      problems.add({ line: row.line, column: timeColumn, value: text, reason: `the same time as line ${existing.line}` });
+      problems.add({
+        line: row.line,
+        column: timeColumn,
+        value: text,
+        reason: `the same time as line ${existing.line}`,
+      });
       continue;
     }
     if (existing) {
@@ -87,7 +122,8 @@ export async function parseRainLogger(table: CsvTable, o: RainOptions, timeZone:
   }
   const warnings: string[] = [];
   if (zeroRows > 0) warnings.push(`${zeroRows} intervals with no rain skipped`);
-  if (merged > 0) warnings.push(`${merged} tips at the same instant as another kept as one record of their summed depth`);
+  if (merged > 0)
+    warnings.push(`${merged} tips at the same instant as another kept as one record of their summed depth`);
   return { records, problems, warnings, rows: table.rows.length };
 }
 
@@ -118,22 +154,44 @@ export async function parseGaugeReadings(
 ): Promise<{ readings: ReadingInput[]; problems: ProblemList; rows: number }> {
   const idx = mapColumns<"gauge" | "time" | "depth">(table.header, o.columns);
   const name = (k: "gauge" | "time" | "depth") => table.header[idx[k] ?? 0] ?? k;
-  const byKey = new Map(gauges.flatMap((g) => [[g.id.toLowerCase(), g.id] as const, [g.name.trim().toLowerCase(), g.id] as const]));
+  const byKey = new Map(
+    gauges.flatMap((g) => [
+      [g.id.toLowerCase(), g.id] as const,
+      [g.name.trim().toLowerCase(), g.id] as const,
+    ]),
+  );
   const problems = new ProblemList();
   const seen = new Map<string, number>();
   const readings: ReadingInput[] = [];
   for await (const row of paced(table.rows, progress)) {
     const gaugeText = cell(row, idx.gauge);
     const gaugeId = gaugeText === undefined ? undefined : byKey.get(gaugeText.toLowerCase());
-    if (!gaugeId) problems.add({ line: row.line, column: name("gauge"), value: gaugeText ?? "", reason: gaugeText === undefined ? "missing gauge" : "no gauge of this farm has this name or id" });
+    if (!gaugeId)
+      problems.add({
+        line: row.line,
+        column: name("gauge"),
+        value: gaugeText ?? "",
+        reason: gaugeText === undefined ? "missing gauge" : "no gauge of this farm has this name or id",
+      });
     const timeText = cell(row, idx.time);
     const stamp = timeText === undefined ? null : parseStamp(timeText, o.dateOrder);
-    if (!stamp) problems.add({ line: row.line, column: name("time"), value: timeText ?? "", reason: timeText === undefined ? "missing date" : `not a date in ${o.dateOrder} order` });
+    if (!stamp)
+      problems.add({
+        line: row.line,
+        column: name("time"),
+        value: timeText ?? "",
+        reason: timeText === undefined ? "missing date" : `not a date in ${o.dateOrder} order`,
+      });
     const depthText = cell(row, idx.depth);
     const raw = depthText === undefined ? null : parseNumber(depthText);
     const depthMm = raw === null ? null : toMillimetres(raw, o.units.rain);
     if (depthMm === null || depthMm < 0 || depthMm > 1000) {
-      problems.add({ line: row.line, column: name("depth"), value: depthText ?? "", reason: depthText === undefined ? "missing depth" : "not a depth between 0 and 1000 mm" });
+      problems.add({
+        line: row.line,
+        column: name("depth"),
+        value: depthText ?? "",
+        reason: depthText === undefined ? "missing depth" : "not a depth between 0 and 1000 mm",
+      });
     }
     if (!gaugeId || !stamp || depthMm === null || problems.has(row.line)) continue;
     const readAtMs = stamp.hasTime
@@ -145,7 +203,12 @@ export async function parseGaugeReadings(
     const key = `${gaugeId}|${rainDate}`;
     const earlier = seen.get(key);
     if (earlier !== undefined) {
-      problems.add({ line: row.line, column: name("time"), value: timeText, reason: `a second reading of this gauge for the rain day ${rainDate} (line ${earlier})` });
+      problems.add({
+        line: row.line,
+        column: name("time"),
+        value: timeText,
+        reason: `a second reading of this gauge for the rain day ${rainDate} (line ${earlier})`,
+      });
       continue;
     }
     seen.set(key, row.line);

@@ -6,7 +6,11 @@ import { IMPORT_KINDS, parseImportRequest, type ImportRequest } from "./options"
 const ENVELOPE_BYTES = 64 * 1024;
 
 function tooLarge(limitBytes: number): AppError {
-  return new AppError("payload_too_large", `The file is larger than ${Math.round(limitBytes / 1024 / 1024)} MB. Split it into smaller files.`, { file: "Too large" });
+  return new AppError(
+    "payload_too_large",
+    `The file is larger than ${Math.round(limitBytes / 1024 / 1024)} MB. Split it into smaller files.`,
+    { file: "Too large" },
+  );
 }
 
 /** The request body, read no further than `maxBytes`: a longer body is refused as soon as it gets there. */
@@ -37,10 +41,16 @@ async function readLimited(req: Request, maxBytes: number, limitBytes: number): 
 }
 
 /** Reads a multipart import upload: the file, its kind and the options (JSON) for that kind. */
-export async function readUpload(req: Request, limitBytes: number): Promise<{ fileName: string; bytes: Uint8Array; request: ImportRequest }> {
+export async function readUpload(
+  req: Request,
+  limitBytes: number,
+): Promise<{ fileName: string; bytes: Uint8Array; request: ImportRequest }> {
   const type = req.headers.get("content-type") ?? "";
   if (!type.toLowerCase().startsWith("multipart/form-data")) {
-    throw new AppError("bad_request", "Send the file as multipart/form-data with the parts file, kind and options.");
+    throw new AppError(
+      "bad_request",
+      "Send the file as multipart/form-data with the parts file, kind and options.",
+    );
   }
   const body = await readLimited(req, limitBytes + ENVELOPE_BYTES, limitBytes);
   let form: FormData;
@@ -50,11 +60,14 @@ export async function readUpload(req: Request, limitBytes: number): Promise<{ fi
     throw new AppError("bad_request", "The multipart body could not be read.");
   }
   const file = form.get("file");
-  if (!(file instanceof Blob)) throw new AppError("invalid", "Attach the file to import.", { file: "Required" });
+  if (!(file instanceof Blob))
+    throw new AppError("invalid", "Attach the file to import.", { file: "Required" });
   if (file.size > limitBytes) throw tooLarge(limitBytes);
   const kind = form.get("kind");
   if (typeof kind !== "string" || !(IMPORT_KINDS as readonly string[]).includes(kind)) {
-    throw new AppError("invalid", "Say what kind of file this is.", { kind: `One of ${IMPORT_KINDS.join(", ")}` });
+    throw new AppError("invalid", "Say what kind of file this is.", {
+      kind: `One of ${IMPORT_KINDS.join(", ")}`,
+    });
   }
   const optionsText = form.get("options");
   let options: unknown = {};
@@ -66,5 +79,9 @@ export async function readUpload(req: Request, limitBytes: number): Promise<{ fi
     }
   }
   const fileName = "name" in file && typeof file.name === "string" && file.name ? file.name : "upload";
-  return { fileName, bytes: new Uint8Array(await file.arrayBuffer()), request: parseImportRequest(kind as (typeof IMPORT_KINDS)[number], options) };
+  return {
+    fileName,
+    bytes: new Uint8Array(await file.arrayBuffer()),
+    request: parseImportRequest(kind as (typeof IMPORT_KINDS)[number], options),
+  };
 }

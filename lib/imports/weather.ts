@@ -4,7 +4,19 @@
  * the day's extremes, RHmax and RHmin the extremes of humidity, wind the mean, solar radiation and rain
  * the sums over the day.
  */
-import { cell, mapColumns, parseNumber, parseStamp, stampToEpochMs, localDate, localDayLengthMs, paced, type CsvTable, type ReadProgress, type CsvRow } from "./csv";
+import {
+  cell,
+  mapColumns,
+  parseNumber,
+  parseStamp,
+  stampToEpochMs,
+  localDate,
+  localDayLengthMs,
+  paced,
+  type CsvTable,
+  type ReadProgress,
+  type CsvRow,
+} from "./csv";
 import type { WeatherOptions } from "./options";
 import { ProblemList } from "./report";
 import { toCelsius, toMetresPerSecond, toMillimetres, toSolarMJm2 } from "./units";
@@ -64,7 +76,12 @@ function readValue(
   }
   const value = convert(raw);
   if (value < limits[0] || value > limits[1]) {
-    problems.add({ line: row.line, column, value: text, reason: `outside ${limits[0]}…${limits[1]} after conversion (${round(value)})` });
+    problems.add({
+      line: row.line,
+      column,
+      value: text,
+      reason: `outside ${limits[0]}…${limits[1]} after conversion (${round(value)})`,
+    });
     return undefined;
   }
   return value;
@@ -92,7 +109,13 @@ function converters(o: WeatherOptions, periodS: number): Record<Value, (v: numbe
 
 const VALUES: Value[] = ["tmax", "tmin", "temp", "rhMax", "rhMin", "rh", "wind", "solar", "rain"];
 
-function readRowValues(row: CsvRow, idx: Partial<Record<Column, number>>, header: string[], problems: ProblemList, conv: Record<Value, (v: number) => number>) {
+function readRowValues(
+  row: CsvRow,
+  idx: Partial<Record<Column, number>>,
+  header: string[],
+  problems: ProblemList,
+  conv: Record<Value, (v: number) => number>,
+) {
   const values: Partial<Record<Value, number>> = {};
   for (const key of VALUES) {
     const v = readValue(row, key, idx[key], header, problems, conv[key]);
@@ -102,12 +125,24 @@ function readRowValues(row: CsvRow, idx: Partial<Record<Column, number>>, header
 }
 
 /** Reads a weather file; `timeZone` is the farm's, for local time stamps of sub-daily files. */
-export async function parseWeather(table: CsvTable, o: WeatherOptions, timeZone: string, progress?: ReadProgress): Promise<WeatherParse> {
+export async function parseWeather(
+  table: CsvTable,
+  o: WeatherOptions,
+  timeZone: string,
+  progress?: ReadProgress,
+): Promise<WeatherParse> {
   const idx = mapColumns<Column>(table.header, o.columns);
-  return o.interval === "daily" ? parseDaily(table, o, idx, progress) : parseHourly(table, o, idx, timeZone, progress);
+  return o.interval === "daily"
+    ? parseDaily(table, o, idx, progress)
+    : parseHourly(table, o, idx, timeZone, progress);
 }
 
-async function parseDaily(table: CsvTable, o: WeatherOptions, idx: Partial<Record<Column, number>>, progress?: ReadProgress): Promise<WeatherParse> {
+async function parseDaily(
+  table: CsvTable,
+  o: WeatherOptions,
+  idx: Partial<Record<Column, number>>,
+  progress?: ReadProgress,
+): Promise<WeatherParse> {
   const problems = new ProblemList();
   const conv = converters(o, 86_400);
   const seen = new Map<string, number>();
@@ -117,23 +152,41 @@ async function parseDaily(table: CsvTable, o: WeatherOptions, idx: Partial<Recor
     const text = cell(row, idx.date);
     const stamp = text === undefined ? null : parseStamp(text, o.dateOrder);
     if (!stamp) {
-      problems.add({ line: row.line, column: dateColumn, value: text ?? "", reason: text === undefined ? "missing date" : `not a date in ${o.dateOrder} order` });
+      problems.add({
+        line: row.line,
+        column: dateColumn,
+        value: text ?? "",
+        reason: text === undefined ? "missing date" : `not a date in ${o.dateOrder} order`,
+      });
       continue;
     }
     const v = readRowValues(row, idx, table.header, problems, conv);
     const tmax = v.tmax ?? null;
     const tmin = v.tmin ?? null;
     if (tmax !== null && tmin !== null && tmax < tmin) {
-      problems.add({ line: row.line, column: table.header[idx.tmin ?? 0] ?? "tmin", reason: "minimum temperature above the maximum" });
+      problems.add({
+        line: row.line,
+        column: table.header[idx.tmin ?? 0] ?? "tmin",
+        reason: "minimum temperature above the maximum",
+      });
     }
     const rhMax = v.rhMax ?? null;
     const rhMin = v.rhMin ?? null;
     if (rhMax !== null && rhMin !== null && rhMin > rhMax) {
-      problems.add({ line: row.line, column: table.header[idx.rhMin ?? 0] ?? "rhMin", reason: "minimum humidity above the maximum" });
+      problems.add({
+        line: row.line,
+        column: table.header[idx.rhMin ?? 0] ?? "rhMin",
+        reason: "minimum humidity above the maximum",
+      });
     }
     const earlier = seen.get(stamp.date);
     if (earlier !== undefined) {
-      problems.add({ line: row.line, column: dateColumn, value: text, reason: `the same date as line ${earlier}` });
+      problems.add({
+        line: row.line,
+        column: dateColumn,
+        value: text,
+        reason: `the same date as line ${earlier}`,
+      });
     }
     if (problems.has(row.line)) continue;
     seen.set(stamp.date, row.line);
@@ -149,7 +202,12 @@ async function parseDaily(table: CsvTable, o: WeatherOptions, idx: Partial<Recor
       rainMm: v.rain ?? null,
     });
   }
-  return { days: days.sort((a, b) => a.date.localeCompare(b.date)), problems, warnings: [], rows: table.rows.length };
+  return {
+    days: days.sort((a, b) => a.date.localeCompare(b.date)),
+    problems,
+    warnings: [],
+    rows: table.rows.length,
+  };
 }
 
 interface DayBucket {
@@ -180,7 +238,13 @@ function aggregate(date: string, b: DayBucket): WeatherDayInput {
   };
 }
 
-async function parseHourly(table: CsvTable, o: WeatherOptions, idx: Partial<Record<Column, number>>, timeZone: string, progress?: ReadProgress): Promise<WeatherParse> {
+async function parseHourly(
+  table: CsvTable,
+  o: WeatherOptions,
+  idx: Partial<Record<Column, number>>,
+  timeZone: string,
+  progress?: ReadProgress,
+): Promise<WeatherParse> {
   const problems = new ProblemList();
   const periodMs = o.intervalMinutes * 60_000;
   const conv = converters(o, periodMs / 1000);
@@ -191,12 +255,23 @@ async function parseHourly(table: CsvTable, o: WeatherOptions, idx: Partial<Reco
     const text = cell(row, idx.date);
     const stamp = text === undefined ? null : parseStamp(text, o.dateOrder);
     if (!stamp || !stamp.hasTime) {
-      problems.add({ line: row.line, column: dateColumn, value: text ?? "", reason: text === undefined ? "missing time stamp" : "not a date and time" });
+      problems.add({
+        line: row.line,
+        column: dateColumn,
+        value: text ?? "",
+        reason: text === undefined ? "missing time stamp" : "not a date and time",
+      });
       continue;
     }
     const atMs = stampToEpochMs(stamp, timeZone);
     const earlier = seen.get(atMs);
-    if (earlier !== undefined) problems.add({ line: row.line, column: dateColumn, value: text, reason: `the same time as line ${earlier}` });
+    if (earlier !== undefined)
+      problems.add({
+        line: row.line,
+        column: dateColumn,
+        value: text,
+        reason: `the same time as line ${earlier}`,
+      });
     const v = readRowValues(row, idx, table.header, problems, conv);
     if (problems.has(row.line)) continue;
     seen.set(atMs, row.line);
@@ -222,8 +297,10 @@ async function parseHourly(table: CsvTable, o: WeatherOptions, idx: Partial<Reco
       continue;
     }
     const day = aggregate(date, b);
-    if (o.columns.solar && day.solarMJm2 === null) warnings.push(`${date}: solar radiation missing in some intervals, left empty`);
-    if (o.columns.rain && day.rainMm === null) warnings.push(`${date}: rain missing in some intervals, left empty`);
+    if (o.columns.solar && day.solarMJm2 === null)
+      warnings.push(`${date}: solar radiation missing in some intervals, left empty`);
+    if (o.columns.rain && day.rainMm === null)
+      warnings.push(`${date}: rain missing in some intervals, left empty`);
     days.push(day);
   }
   return { days, problems, warnings, rows: table.rows.length };

@@ -64,22 +64,40 @@ export interface WeatherDayQc {
 /** Range checks and the clear-sky envelope for one observed weather day. */
 export function weatherDayFlags(d: WeatherDayQc): FlagCandidate[] {
   const out: FlagCandidate[] = [];
-  const flag = (rule: string, message: string) => out.push({ entity: "weather_day", entityId: d.id, date: d.date, rule, message });
+  const flag = (rule: string, message: string) =>
+    out.push({ entity: "weather_day", entityId: d.id, date: d.date, rule, message });
   const L = QC_LIMITS;
-  if (d.rainMm !== null && d.rainMm > L.rainDayMm) flag("rain_range", `${d.rainMm} mm of rain in a day is above ${L.rainDayMm} mm`);
+  if (d.rainMm !== null && d.rainMm > L.rainDayMm)
+    flag("rain_range", `${d.rainMm} mm of rain in a day is above ${L.rainDayMm} mm`);
   if ((d.tmaxC !== null && d.tmaxC > L.tmaxC) || (d.tminC !== null && d.tminC < L.tminC)) {
-    flag("temperature_range", `temperatures ${d.tminC ?? "–"} to ${d.tmaxC ?? "–"} °C are outside ${L.tminC} to ${L.tmaxC} °C`);
+    flag(
+      "temperature_range",
+      `temperatures ${d.tminC ?? "–"} to ${d.tmaxC ?? "–"} °C are outside ${L.tminC} to ${L.tmaxC} °C`,
+    );
   } else if (d.tmaxC !== null && d.tminC !== null && d.tmaxC - d.tminC > L.diurnalRangeC) {
-    flag("temperature_range", `a ${(d.tmaxC - d.tminC).toFixed(1)} °C range in one day is above ${L.diurnalRangeC} °C`);
+    flag(
+      "temperature_range",
+      `a ${(d.tmaxC - d.tminC).toFixed(1)} °C range in one day is above ${L.diurnalRangeC} °C`,
+    );
   }
   if ((d.rhMinPct !== null && d.rhMinPct < L.rhMinPct) || (d.rhMaxPct !== null && d.rhMaxPct < L.rhMaxPct)) {
-    flag("humidity_range", `humidity ${d.rhMinPct ?? "–"} to ${d.rhMaxPct ?? "–"} % is below what the air near a farm reaches`);
+    flag(
+      "humidity_range",
+      `humidity ${d.rhMinPct ?? "–"} to ${d.rhMaxPct ?? "–"} % is below what the air near a farm reaches`,
+    );
   }
-  if (d.windMs !== null && d.windMs > L.windMs) flag("wind_range", `a daily mean wind of ${d.windMs.toFixed(1)} m/s is above ${L.windMs} m/s`);
+  if (d.windMs !== null && d.windMs > L.windMs)
+    flag("wind_range", `a daily mean wind of ${d.windMs.toFixed(1)} m/s is above ${L.windMs} m/s`);
   if (d.solarMJm2 !== null && d.latitude !== null) {
-    const rso = clearSkySolarMJm2(extraterrestrialRadiationMJm2(d.latitude, dayOfYear(d.date)), d.elevationM ?? 0);
+    const rso = clearSkySolarMJm2(
+      extraterrestrialRadiationMJm2(d.latitude, dayOfYear(d.date)),
+      d.elevationM ?? 0,
+    );
     if (d.solarMJm2 > rso * L.solarOverClearSky) {
-      flag("solar_clear_sky", `${d.solarMJm2.toFixed(1)} MJ/m² is above the clear-sky radiation of ${rso.toFixed(1)} MJ/m² for this day and place`);
+      flag(
+        "solar_clear_sky",
+        `${d.solarMJm2.toFixed(1)} MJ/m² is above the clear-sky radiation of ${rso.toFixed(1)} MJ/m² for this day and place`,
+      );
     }
   }
   return out;
@@ -114,7 +132,9 @@ export function neighbourFlags(days: readonly GaugeDay[]): FlagCandidate[] {
   for (const group of byDate.values()) {
     for (const d of group) {
       const neighbours = group.filter(
-        (n) => n.gaugeId !== d.gaugeId && (!n.location || !d.location || distanceKm(n.location, d.location) <= L.neighbourKm),
+        (n) =>
+          n.gaugeId !== d.gaugeId &&
+          (!n.location || !d.location || distanceKm(n.location, d.location) <= L.neighbourKm),
       );
       if (neighbours.length < 2) continue;
       const m = median([d, ...neighbours].map((n) => n.depthMm));
@@ -128,7 +148,9 @@ export function neighbourFlags(days: readonly GaugeDay[]): FlagCandidate[] {
         rule = "neighbour_ratio";
         message = `${d.depthMm.toFixed(1)} mm is ${(d.depthMm / m).toFixed(2)} × the median of ${m.toFixed(1)} mm across ${neighbours.length + 1} nearby gauges`;
       }
-      if (rule) for (const id of d.entityIds) out.push({ entity: d.entity, entityId: id, date: d.date, rule, message });
+      if (rule)
+        for (const id of d.entityIds)
+          out.push({ entity: d.entity, entityId: id, date: d.date, rule, message });
     }
   }
   return out;
@@ -161,7 +183,11 @@ export function tipFlags(tips: readonly TipQc[]): FlagCandidate[] {
   tips.forEach((t, i) => {
     const prev = tips[i - 1];
     if (prev && t.atMs - prev.atMs < L.minTipGapS * 1000) {
-      flag(t, "double_tip", `${((t.atMs - prev.atMs) / 1000).toFixed(2)} s after the tip before; a bucket needs at least ${L.minTipGapS} s`);
+      flag(
+        t,
+        "double_tip",
+        `${((t.atMs - prev.atMs) / 1000).toFixed(2)} s after the tip before; a bucket needs at least ${L.minTipGapS} s`,
+      );
     } else if (t.resolutionMm !== null && t.depthMm > t.resolutionMm * 1.5) {
       flag(t, "double_tip", `${t.depthMm} mm at one instant is more than one ${t.resolutionMm} mm tip`);
     }
@@ -173,7 +199,12 @@ export function tipFlags(tips: readonly TipQc[]): FlagCandidate[] {
     if (windowMm > L.burstMm) {
       for (let j = windowStart; j <= i; j++) {
         const b = tips[j];
-        if (b) flag(b, "tip_burst", `${windowMm.toFixed(1)} mm within ${L.burstWindowS} s is above ${L.burstMm} mm`);
+        if (b)
+          flag(
+            b,
+            "tip_burst",
+            `${windowMm.toFixed(1)} mm within ${L.burstWindowS} s is above ${L.burstMm} mm`,
+          );
       }
     }
   });
@@ -183,6 +214,12 @@ export function tipFlags(tips: readonly TipQc[]): FlagCandidate[] {
 /** A manual reading above the day's rain limit. */
 export function readingRangeFlag(r: { id: string; date: string; depthMm: number }): FlagCandidate | null {
   return r.depthMm > QC_LIMITS.rainDayMm
-    ? { entity: "rain_reading", entityId: r.id, date: r.date, rule: "rain_range", message: `${r.depthMm} mm in a day is above ${QC_LIMITS.rainDayMm} mm` }
+    ? {
+        entity: "rain_reading",
+        entityId: r.id,
+        date: r.date,
+        rule: "rain_range",
+        message: `${r.depthMm} mm in a day is above ${QC_LIMITS.rainDayMm} mm`,
+      }
     : null;
 }

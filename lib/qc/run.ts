@@ -1,7 +1,15 @@
 import "server-only";
 import { groupRecordsByAccountDay } from "@/lib/waterbalance";
 import { loadQcInputs, syncFlags } from "@/db/qc";
-import { neighbourFlags, readingRangeFlag, tipFlags, weatherDayFlags, type FlagCandidate, type GaugeDay, type TipQc } from "./rules";
+import {
+  neighbourFlags,
+  readingRangeFlag,
+  tipFlags,
+  weatherDayFlags,
+  type FlagCandidate,
+  type GaugeDay,
+  type TipQc,
+} from "./rules";
 
 export interface QcResult {
   opened: number;
@@ -22,20 +30,41 @@ export async function runFarmQc(farmId: string, fromDate: string, toDate: string
   for (const w of weather) {
     candidates.push(
       ...weatherDayFlags({
-        id: w.id, date: w.date, tmaxC: w.tmax_c, tminC: w.tmin_c, rhMaxPct: w.rh_max_pct, rhMinPct: w.rh_min_pct,
-        windMs: w.wind_ms, solarMJm2: w.solar_mj_m2, rainMm: w.rain_mm, latitude: w.latitude, elevationM: w.elevation_m,
+        id: w.id,
+        date: w.date,
+        tmaxC: w.tmax_c,
+        tminC: w.tmin_c,
+        rhMaxPct: w.rh_max_pct,
+        rhMinPct: w.rh_min_pct,
+        windMs: w.wind_ms,
+        solarMJm2: w.solar_mj_m2,
+        rainMm: w.rain_mm,
+        latitude: w.latitude,
+        elevationM: w.elevation_m,
       }),
     );
   }
 
   const location = new Map(
-    gauges.map((g) => [g.id, g.latitude !== null && g.longitude !== null ? { latitudeDeg: g.latitude, longitudeDeg: g.longitude } : null]),
+    gauges.map((g) => [
+      g.id,
+      g.latitude !== null && g.longitude !== null
+        ? { latitudeDeg: g.latitude, longitudeDeg: g.longitude }
+        : null,
+    ]),
   );
   const gaugeDays: GaugeDay[] = [];
   for (const r of readings) {
     const flag = readingRangeFlag({ id: r.id, date: r.rain_date, depthMm: r.depth_mm });
     if (flag) candidates.push(flag);
-    gaugeDays.push({ gaugeId: r.gauge_id, date: r.rain_date, depthMm: r.depth_mm, location: location.get(r.gauge_id) ?? null, entity: "rain_reading", entityIds: [r.id] });
+    gaugeDays.push({
+      gaugeId: r.gauge_id,
+      date: r.rain_date,
+      depthMm: r.depth_mm,
+      location: location.get(r.gauge_id) ?? null,
+      entity: "rain_reading",
+      entityIds: [r.id],
+    });
   }
 
   const recordIdsInRange: string[] = [];
@@ -56,10 +85,24 @@ export async function runFarmQc(farmId: string, fromDate: string, toDate: string
       recordIdsInRange.push(...ids);
       // A gauge with a manual reading that day is compared through the reading, not twice.
       if (!readings.some((x) => x.gauge_id === g.id && x.rain_date === d.date)) {
-        gaugeDays.push({ gaugeId: g.id, date: d.date, depthMm: d.rainMm, location: location.get(g.id) ?? null, entity: "rain_record", entityIds: ids });
+        gaugeDays.push({
+          gaugeId: g.id,
+          date: d.date,
+          depthMm: d.rainMm,
+          location: location.get(g.id) ?? null,
+          entity: "rain_record",
+          entityIds: ids,
+        });
       }
       for (const r of rows) {
-        if (r.interval_s === null) tips.push({ id: String(r.id), date: d.date, atMs: r.at.getTime(), depthMm: r.depth_mm, resolutionMm: g.resolution_mm });
+        if (r.interval_s === null)
+          tips.push({
+            id: String(r.id),
+            date: d.date,
+            atMs: r.at.getTime(),
+            depthMm: r.depth_mm,
+            resolutionMm: g.resolution_mm,
+          });
       }
     }
     if (g.kind === "recording") candidates.push(...tipFlags(tips.sort((a, b) => a.atMs - b.atMs)));

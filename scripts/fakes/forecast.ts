@@ -32,7 +32,11 @@ function generator(seed: number): () => number {
 const round1 = (v: number) => Math.round(v * 10) / 10;
 
 /** One synthetic day at a place: seasonal temperatures, some cloud, now and then rain. */
-export function syntheticDay(latitude: number, longitude: number, date: string): ForecastResponse["days"][number] {
+export function syntheticDay(
+  latitude: number,
+  longitude: number,
+  date: string,
+): ForecastResponse["days"][number] {
   const rand = generator(hash(`${latitude.toFixed(3)},${longitude.toFixed(3)},${date}`));
   const doy = dayOfYear(date);
   // Warmest about 20 days after the solstice of the place's own summer.
@@ -55,7 +59,12 @@ export function syntheticDay(latitude: number, longitude: number, date: string):
   };
 }
 
-export function forecastFor(latitude: number, longitude: number, start: string, days: number): ForecastResponse {
+export function forecastFor(
+  latitude: number,
+  longitude: number,
+  start: string,
+  days: number,
+): ForecastResponse {
   return {
     latitude,
     longitude,
@@ -76,8 +85,10 @@ export function startForecastFake(opts: { port: number }): Promise<{ server: Ser
     const longitude = Number(url.searchParams.get("longitude"));
     const days = Number(url.searchParams.get("days") ?? 7);
     const start = url.searchParams.get("start") ?? new Date().toISOString().slice(0, 10);
-    if (!url.searchParams.has("latitude") || !Number.isFinite(latitude) || Math.abs(latitude) > 90) return send(400, { error: "latitude must be -90 to 90" });
-    if (!url.searchParams.has("longitude") || !Number.isFinite(longitude) || Math.abs(longitude) > 180) return send(400, { error: "longitude must be -180 to 180" });
+    if (!url.searchParams.has("latitude") || !Number.isFinite(latitude) || Math.abs(latitude) > 90)
+      return send(400, { error: "latitude must be -90 to 90" });
+    if (!url.searchParams.has("longitude") || !Number.isFinite(longitude) || Math.abs(longitude) > 180)
+      return send(400, { error: "longitude must be -180 to 180" });
     if (!Number.isInteger(days) || days < 1 || days > 16) return send(400, { error: "days must be 1 to 16" });
     if (!/^\d{4}-\d{2}-\d{2}$/.test(start)) return send(400, { error: "start must be YYYY-MM-DD" });
     send(200, forecastFor(latitude, longitude, start, days));

@@ -43,12 +43,26 @@ async function block() {
 
 describe("boundary files", () => {
   it("needs the editSetup capability: a worker may log rain but not move fields", async () => {
-    const res = await upload(importsRoute.POST, team.farmId, team.worker, { name: "square.geojson", data: fixture("square.geojson") }, "boundaries", {});
+    const res = await upload(
+      importsRoute.POST,
+      team.farmId,
+      team.worker,
+      { name: "square.geojson", data: fixture("square.geojson") },
+      "boundaries",
+      {},
+    );
     expect(res.status).toBe(403);
   });
 
   it("reports broken features by number and writes nothing when any is rejected", async () => {
-    const res = await upload<ImportBody>(importsRoute.POST, team.farmId, team.manager, { name: "square.geojson", data: fixture("square.geojson") }, "boundaries", {});
+    const res = await upload<ImportBody>(
+      importsRoute.POST,
+      team.farmId,
+      team.manager,
+      { name: "square.geojson", data: fixture("square.geojson") },
+      "boundaries",
+      {},
+    );
     expect(res.body.status).toBe("rejected");
     expect(res.body.report.unit).toBe("feature");
     expect(res.body.report.rejected).toEqual([
@@ -60,7 +74,14 @@ describe("boundary files", () => {
   });
 
   it("GeoJSON: sets the matching field's boundary, area and centroid", async () => {
-    const res = await upload<ImportBody>(importsRoute.POST, team.farmId, team.manager, { name: "square.geojson", data: fixture("square.geojson") }, "boundaries", { writeGoodRows: true });
+    const res = await upload<ImportBody>(
+      importsRoute.POST,
+      team.farmId,
+      team.manager,
+      { name: "square.geojson", data: fixture("square.geojson") },
+      "boundaries",
+      { writeGoodRows: true },
+    );
     expect(res.body.status).toBe("done");
     expect(res.body.counts).toMatchObject({ inserted: 0, updated: 1 });
     const field = await block();
@@ -73,7 +94,14 @@ describe("boundary files", () => {
   });
 
   it("KML: the same block, the same area, and nothing changes", async () => {
-    const res = await upload<ImportBody>(importsRoute.POST, team.farmId, team.owner, { name: "square.kml", data: fixture("square.kml") }, "boundaries", {});
+    const res = await upload<ImportBody>(
+      importsRoute.POST,
+      team.farmId,
+      team.owner,
+      { name: "square.kml", data: fixture("square.kml") },
+      "boundaries",
+      {},
+    );
     expect(res.body.status).toBe("done");
     // KML's altitudes are dropped, so the boundary equals the GeoJSON one and the field is unchanged.
     expect(res.body.counts).toMatchObject({ inserted: 0, updated: 0, unchanged: 1 });
@@ -82,10 +110,35 @@ describe("boundary files", () => {
 
   it("zipped shapefile: the same block, plus a new field for a name that matches none", async () => {
     const zip = zippedShapefile([
-      { name: "River block", ring: [[146.0, -34.4], [146.01, -34.4], [146.01, -34.41], [146.0, -34.41], [146.0, -34.4]] },
-      { name: "Top paddock", ring: [[146.02, -34.4], [146.03, -34.4], [146.03, -34.41], [146.02, -34.41], [146.02, -34.4]] },
+      {
+        name: "River block",
+        ring: [
+          [146.0, -34.4],
+          [146.01, -34.4],
+          [146.01, -34.41],
+          [146.0, -34.41],
+          [146.0, -34.4],
+        ],
+      },
+      {
+        name: "Top paddock",
+        ring: [
+          [146.02, -34.4],
+          [146.03, -34.4],
+          [146.03, -34.41],
+          [146.02, -34.41],
+          [146.02, -34.4],
+        ],
+      },
     ]);
-    const res = await upload<ImportBody>(importsRoute.POST, team.farmId, team.owner, { name: "blocks.zip", data: zip }, "boundaries", {});
+    const res = await upload<ImportBody>(
+      importsRoute.POST,
+      team.farmId,
+      team.owner,
+      { name: "blocks.zip", data: zip },
+      "boundaries",
+      {},
+    );
     expect(res.body.status).toBe("done");
     expect(res.body.counts).toMatchObject({ rows: 2, inserted: 1, unchanged: 1 });
     expect((await block()).area_ha).toBeCloseTo(EXPECTED_HA, 1);
@@ -96,9 +149,32 @@ describe("boundary files", () => {
   });
 
   it("refuses a name that matches no field when creating is turned off", async () => {
-    const geo = JSON.stringify({ type: "Feature", properties: { name: "Nowhere" }, geometry: { type: "Polygon", coordinates: [[[146.1, -34.4], [146.11, -34.4], [146.11, -34.41], [146.1, -34.4]]] } });
-    const res = await upload<ImportBody>(importsRoute.POST, team.farmId, team.owner, { name: "one.json", data: geo }, "boundaries", { createMissing: false });
+    const geo = JSON.stringify({
+      type: "Feature",
+      properties: { name: "Nowhere" },
+      geometry: {
+        type: "Polygon",
+        coordinates: [
+          [
+            [146.1, -34.4],
+            [146.11, -34.4],
+            [146.11, -34.41],
+            [146.1, -34.4],
+          ],
+        ],
+      },
+    });
+    const res = await upload<ImportBody>(
+      importsRoute.POST,
+      team.farmId,
+      team.owner,
+      { name: "one.json", data: geo },
+      "boundaries",
+      { createMissing: false },
+    );
     expect(res.body.status).toBe("rejected");
-    expect(res.body.report.rejected).toEqual([{ line: 1, column: "name", value: "Nowhere", reason: "no field of this farm has this name" }]);
+    expect(res.body.report.rejected).toEqual([
+      { line: 1, column: "name", value: "Nowhere", reason: "no field of this farm has this name" },
+    ]);
   });
 });

@@ -35,7 +35,9 @@ function twoYearsHourly(): string {
     const stamp = d.toISOString().slice(0, 16).replace("T", " ");
     const temp = 15 + 8 * Math.sin(((hour - 9) / 24) * 2 * Math.PI);
     const solar = hour >= 7 && hour <= 18 ? 600 * Math.sin(((hour - 6) / 13) * Math.PI) : 0;
-    lines.push(`${stamp},${temp.toFixed(1)},${(70 - (temp - 15) * 3).toFixed(0)},${(2 + (hour % 5) * 0.3).toFixed(1)},${solar.toFixed(0)},0`);
+    lines.push(
+      `${stamp},${temp.toFixed(1)},${(70 - (temp - 15) * 3).toFixed(0)},${(2 + (hour % 5) * 0.3).toFixed(1)},${solar.toFixed(0)},0`,
+    );
   }
   return lines.join("\n") + "\n";
 }
@@ -44,7 +46,9 @@ beforeAll(async () => {
   team = await createFarmTeam();
   // UTC keeps every local day 24 hours long, so the count of whole days is plain: 366 + 365.
   await db("farms").where({ id: team.farmId }).update({ time_zone: "Etc/UTC" });
-  const [row] = await db("weather_stations").insert({ farm_id: team.farmId, name: "Logger station", latitude: -34.4, longitude: 146.0 }).returning("id");
+  const [row] = await db("weather_stations")
+    .insert({ farm_id: team.farmId, name: "Logger station", latitude: -34.4, longitude: 146.0 })
+    .returning("id");
   stationId = row.id;
 });
 
@@ -57,12 +61,31 @@ describe("large imports", () => {
   it("answers 202 at once and shows real progress until done", async () => {
     const csv = twoYearsHourly();
     expect(csv.length).toBeGreaterThan(SYNC_IMPORT_BYTES);
-    const options = { stationId, interval: "hourly", columns: { date: "time", temp: "temp", rh: "rh", wind: "wind", solar: "solar", rain: "rain" }, units: { solar: "W/m2" } };
-    const res = await upload<ImportBody>(importsRoute.POST, team.farmId, team.worker, { name: "two-years.csv", data: csv }, "weather_csv", options);
+    const options = {
+      stationId,
+      interval: "hourly",
+      columns: { date: "time", temp: "temp", rh: "rh", wind: "wind", solar: "solar", rain: "rain" },
+      units: { solar: "W/m2" },
+    };
+    const res = await upload<ImportBody>(
+      importsRoute.POST,
+      team.farmId,
+      team.worker,
+      { name: "two-years.csv", data: csv },
+      "weather_csv",
+      options,
+    );
     expect(res.status).toBe(202);
     expect(res.body).toMatchObject({ status: "processing", progress: 0 });
 
-    const again = await upload<ImportBody>(importsRoute.POST, team.farmId, team.worker, { name: "two-years.csv", data: csv }, "weather_csv", options);
+    const again = await upload<ImportBody>(
+      importsRoute.POST,
+      team.farmId,
+      team.worker,
+      { name: "two-years.csv", data: csv },
+      "weather_csv",
+      options,
+    );
     expect(again.status).toBe(200);
     expect(again.body).toMatchObject({ id: res.body.id, repeat: true });
 
@@ -70,7 +93,12 @@ describe("large imports", () => {
     let current: ImportBody = res.body;
     for (let i = 0; i < 600 && current.status === "processing"; i++) {
       await new Promise((r) => setTimeout(r, 25));
-      current = (await call<ImportBody>(importRoute.GET, "/x", { as: team.worker, params: { farmId: team.farmId, importId: res.body.id } })).body;
+      current = (
+        await call<ImportBody>(importRoute.GET, "/x", {
+          as: team.worker,
+          params: { farmId: team.farmId, importId: res.body.id },
+        })
+      ).body;
       seen.push(current.progress);
     }
     console.log(`progress seen while polling: ${[...new Set(seen.map((p) => p.toFixed(2)))].join(" → ")}`);
@@ -80,6 +108,8 @@ describe("large imports", () => {
     expect(seen.some((p) => p > 0 && p < 1)).toBe(true); // and is seen between start and end
     expect(current.counts.inserted).toBe(731);
     expect(current.report?.warnings).toEqual([]);
-    expect(await db("weather_days").where({ station_id: stationId }).count<{ n: string }[]>({ n: "*" })).toEqual([{ n: 731 }]);
+    expect(
+      await db("weather_days").where({ station_id: stationId }).count<{ n: string }[]>({ n: "*" }),
+    ).toEqual([{ n: 731 }]);
   });
 });

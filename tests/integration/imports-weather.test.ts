@@ -17,8 +17,19 @@ interface ImportBody {
   status: string;
   progress: number;
   repeat: boolean;
-  counts: { rows: number; accepted: number; rejected: number; inserted: number; updated: number; unchanged: number };
-  report: { rejected: { line: number; column: string; reason: string }[]; warnings: string[]; written: boolean };
+  counts: {
+    rows: number;
+    accepted: number;
+    rejected: number;
+    inserted: number;
+    updated: number;
+    unchanged: number;
+  };
+  report: {
+    rejected: { line: number; column: string; reason: string }[];
+    warnings: string[];
+    written: boolean;
+  };
   error?: { code: string; fields?: Record<string, string> };
 }
 
@@ -27,7 +38,9 @@ let stationId: string;
 let otherStationId: string;
 
 async function station(farmId: string, name: string): Promise<string> {
-  const [row] = await db("weather_stations").insert({ farm_id: farmId, name, latitude: -34.4, longitude: 146.0, elevation_m: 120 }).returning("id");
+  const [row] = await db("weather_stations")
+    .insert({ farm_id: farmId, name, latitude: -34.4, longitude: 146.0, elevation_m: 120 })
+    .returning("id");
   return row.id;
 }
 
@@ -64,12 +77,28 @@ describe("unit conversions", () => {
 describe("daily weather files", () => {
   const imperial = {
     stationId: "",
-    columns: { date: "Day", tmax: "High F", tmin: "Low F", rhMax: "RH max", rhMin: "RH min", wind: "Wind mph", solar: "Solar W/m2", rain: "Rain in" },
+    columns: {
+      date: "Day",
+      tmax: "High F",
+      tmin: "Low F",
+      rhMax: "RH max",
+      rhMin: "RH min",
+      wind: "Wind mph",
+      solar: "Solar W/m2",
+      rain: "Rain in",
+    },
     units: { temperature: "F", wind: "mph", solar: "W/m2", rain: "in" },
   };
 
   it("stores days in the engine's units, from the user's mapping and units", async () => {
-    const res = await upload<ImportBody>(importsRoute.POST, team.farmId, team.worker, { name: "imperial.csv", data: fixture("weather-daily-imperial.csv") }, "weather_csv", { ...imperial, stationId });
+    const res = await upload<ImportBody>(
+      importsRoute.POST,
+      team.farmId,
+      team.worker,
+      { name: "imperial.csv", data: fixture("weather-daily-imperial.csv") },
+      "weather_csv",
+      { ...imperial, stationId },
+    );
     expect(res.status).toBe(201);
     expect(res.body.status).toBe("done");
     expect(res.body.counts).toMatchObject({ rows: 3, accepted: 3, rejected: 0, inserted: 3 });
@@ -77,7 +106,14 @@ describe("daily weather files", () => {
     expect(rows.map((r) => r.date)).toEqual(["2026-11-02", "2026-11-03", "2026-11-04"]);
     // by hand: (86 − 32) × 5/9 = 30; (59 − 32) × 5/9 = 15; 5 mph × 0.44704 = 2.2352 m/s;
     // 300 W/m² × 0.0864 = 25.92 MJ/m²; 0.5 in × 25.4 = 12.7 mm
-    expect(rows[0]).toMatchObject({ tmax_c: 30, tmin_c: 15, rh_max_pct: 82, rh_min_pct: 31, rain_mm: 0, flagged: false });
+    expect(rows[0]).toMatchObject({
+      tmax_c: 30,
+      tmin_c: 15,
+      rh_max_pct: 82,
+      rh_min_pct: 31,
+      rain_mm: 0,
+      flagged: false,
+    });
     expect(rows[0].wind_ms).toBeCloseTo(2.2352, 10);
     expect(rows[0].solar_mj_m2).toBeCloseTo(25.92, 10);
     expect(rows[1].tmax_c).toBeCloseTo(33, 10);
@@ -91,26 +127,62 @@ describe("daily weather files", () => {
 
   it("changes nothing when the same file is imported again", async () => {
     const before = await days(stationId);
-    const res = await upload<ImportBody>(importsRoute.POST, team.farmId, team.worker, { name: "imperial.csv", data: fixture("weather-daily-imperial.csv") }, "weather_csv", { ...imperial, stationId });
+    const res = await upload<ImportBody>(
+      importsRoute.POST,
+      team.farmId,
+      team.worker,
+      { name: "imperial.csv", data: fixture("weather-daily-imperial.csv") },
+      "weather_csv",
+      { ...imperial, stationId },
+    );
     expect(res.status).toBe(200);
     expect(res.body.repeat).toBe(true);
     const after = await days(stationId);
-    expect(after.map((r) => [r.id, r.updated_at.getTime()])).toEqual(before.map((r) => [r.id, r.updated_at.getTime()]));
+    expect(after.map((r) => [r.id, r.updated_at.getTime()])).toEqual(
+      before.map((r) => [r.id, r.updated_at.getTime()]),
+    );
   });
 
   it("does not duplicate or touch rows when a renamed copy is imported (upserts by day)", async () => {
     const before = await days(stationId);
-    const res = await upload<ImportBody>(importsRoute.POST, team.farmId, team.worker, { name: "copy.csv", data: fixture("weather-daily-imperial.csv").toString() + "\n" }, "weather_csv", { ...imperial, stationId });
+    const res = await upload<ImportBody>(
+      importsRoute.POST,
+      team.farmId,
+      team.worker,
+      { name: "copy.csv", data: fixture("weather-daily-imperial.csv").toString() + "\n" },
+      "weather_csv",
+      { ...imperial, stationId },
+    );
     expect(res.status).toBe(201);
     expect(res.body.counts).toMatchObject({ inserted: 0, updated: 0, unchanged: 3 });
     const after = await days(stationId);
-    expect(after.map((r) => [r.id, r.updated_at.getTime()])).toEqual(before.map((r) => [r.id, r.updated_at.getTime()]));
+    expect(after.map((r) => [r.id, r.updated_at.getTime()])).toEqual(
+      before.map((r) => [r.id, r.updated_at.getTime()]),
+    );
   });
 
-  const plain = { columns: { date: "date", tmax: "tmax", tmin: "tmin", rhMax: "rhmax", rhMin: "rhmin", wind: "wind", solar: "solar", rain: "rain" } };
+  const plain = {
+    columns: {
+      date: "date",
+      tmax: "tmax",
+      tmin: "tmin",
+      rhMax: "rhmax",
+      rhMin: "rhmin",
+      wind: "wind",
+      solar: "solar",
+      rain: "rain",
+    },
+  };
 
   it("reports every rejected row by line, column and reason, and writes nothing by default", async () => {
-    const res = await upload<ImportBody>(importsRoute.POST, team.farmId, team.worker, { name: "broken.csv", data: fixture("weather-daily-broken.csv") }, "weather_csv", { ...plain, stationId });
+    const res = await upload<ImportBody>(
+      importsRoute.POST,
+      team.farmId,
+      team.worker,
+      { name: "broken.csv", data: fixture("weather-daily-broken.csv") },
+      "weather_csv",
+      { ...plain, stationId },
+    );
     expect(res.status).toBe(201);
     expect(res.body.status).toBe("rejected");
     expect(res.body.report.written).toBe(false);
@@ -122,14 +194,28 @@ describe("daily weather files", () => {
     expect(byLine[7]).toMatchObject({ column: "rhmax" });
     expect(byLine[8]).toMatchObject({ column: "date", reason: "the same date as line 3" });
     expect(byLine[9]).toMatchObject({ column: "solar" });
-    expect(await db("weather_days").where({ station_id: stationId }).whereBetween("date", ["2026-11-10", "2026-11-16"])).toHaveLength(0);
+    expect(
+      await db("weather_days")
+        .where({ station_id: stationId })
+        .whereBetween("date", ["2026-11-10", "2026-11-16"]),
+    ).toHaveLength(0);
   });
 
   it("writes the good rows when asked to", async () => {
-    const res = await upload<ImportBody>(importsRoute.POST, team.farmId, team.manager, { name: "broken.csv", data: fixture("weather-daily-broken.csv") }, "weather_csv", { ...plain, stationId, writeGoodRows: true });
+    const res = await upload<ImportBody>(
+      importsRoute.POST,
+      team.farmId,
+      team.manager,
+      { name: "broken.csv", data: fixture("weather-daily-broken.csv") },
+      "weather_csv",
+      { ...plain, stationId, writeGoodRows: true },
+    );
     expect(res.body.status).toBe("done");
     expect(res.body.counts).toMatchObject({ rejected: 6, inserted: 2 });
-    const stored = await db("weather_days").where({ station_id: stationId }).whereBetween("date", ["2026-11-10", "2026-11-16"]).orderBy("date");
+    const stored = await db("weather_days")
+      .where({ station_id: stationId })
+      .whereBetween("date", ["2026-11-10", "2026-11-16"])
+      .orderBy("date");
     expect(stored.map((r) => r.date)).toEqual(["2026-11-10", "2026-11-11"]);
     expect(stored[1].tmax_c).toBe(31); // line 3, not its duplicate on line 8
   });
@@ -137,12 +223,26 @@ describe("daily weather files", () => {
 
 describe("hourly weather files", () => {
   it("aggregates to the local day as FAO-56 ch. 3 builds daily values", async () => {
-    const res = await upload<ImportBody>(importsRoute.POST, team.farmId, team.agronomist, { name: "hourly.csv", data: fixture("weather-hourly.csv") }, "weather_csv", {
-      stationId,
-      interval: "hourly",
-      columns: { date: "timestamp", temp: "temp_c", rh: "rh_pct", wind: "wind_kmh", solar: "solar_wm2", rain: "rain_mm" },
-      units: { wind: "km/h", solar: "W/m2" },
-    });
+    const res = await upload<ImportBody>(
+      importsRoute.POST,
+      team.farmId,
+      team.agronomist,
+      { name: "hourly.csv", data: fixture("weather-hourly.csv") },
+      "weather_csv",
+      {
+        stationId,
+        interval: "hourly",
+        columns: {
+          date: "timestamp",
+          temp: "temp_c",
+          rh: "rh_pct",
+          wind: "wind_kmh",
+          solar: "solar_wm2",
+          rain: "rain_mm",
+        },
+        units: { wind: "km/h", solar: "W/m2" },
+      },
+    );
     expect(res.body.status).toBe("done");
     // The 01:00 row of the 21st starts a day with one hour of 24: left out, and said so.
     expect(res.body.report.warnings).toEqual(["2026-11-21: 1 of 24 intervals, not written"]);
@@ -162,13 +262,27 @@ describe("hourly weather files", () => {
 
 describe("refusals", () => {
   it("refuses a station of another farm as an invalid option (422), not as someone else's data", async () => {
-    const res = await upload<ImportBody>(importsRoute.POST, team.farmId, team.owner, { name: "imperial.csv", data: fixture("weather-daily-imperial.csv") }, "weather_csv", { columns: { date: "Day" }, stationId: otherStationId });
+    const res = await upload<ImportBody>(
+      importsRoute.POST,
+      team.farmId,
+      team.owner,
+      { name: "imperial.csv", data: fixture("weather-daily-imperial.csv") },
+      "weather_csv",
+      { columns: { date: "Day" }, stationId: otherStationId },
+    );
     expect(res.status).toBe(422);
     expect(res.body.error?.fields).toHaveProperty("options.stationId");
   });
 
   it("names a mapped column the file does not have", async () => {
-    const res = await upload<ImportBody>(importsRoute.POST, team.farmId, team.owner, { name: "imperial.csv", data: fixture("weather-daily-imperial.csv") }, "weather_csv", { columns: { date: "Day", tmax: "Tmax" }, stationId });
+    const res = await upload<ImportBody>(
+      importsRoute.POST,
+      team.farmId,
+      team.owner,
+      { name: "imperial.csv", data: fixture("weather-daily-imperial.csv") },
+      "weather_csv",
+      { columns: { date: "Day", tmax: "Tmax" }, stationId },
+    );
     expect(res.status).toBe(422);
     expect(res.body.error?.fields?.["options.columns.tmax"]).toMatch(/no column "Tmax"/);
   });
@@ -176,32 +290,66 @@ describe("refusals", () => {
   it("answers 413 for a file over 20 MB", async () => {
     const big = "date,rain\n" + "2026-11-01,0\n".repeat(1_700_000);
     expect(big.length).toBeGreaterThan(20 * 1024 * 1024);
-    const res = await upload<ImportBody>(importsRoute.POST, team.farmId, team.owner, { name: "big.csv", data: big }, "weather_csv", { columns: { date: "date", rain: "rain" }, stationId });
+    const res = await upload<ImportBody>(
+      importsRoute.POST,
+      team.farmId,
+      team.owner,
+      { name: "big.csv", data: big },
+      "weather_csv",
+      { columns: { date: "date", rain: "rain" }, stationId },
+    );
     expect(res.status).toBe(413);
     expect(res.body.error?.code).toBe("payload_too_large");
   });
 
   it("shows a member of another farm nothing (404), a viewer may not import (403)", async () => {
-    const outsider = await upload<ImportBody>(importsRoute.POST, team.farmId, team.outsider, { name: "a.csv", data: "x" }, "weather_csv", {});
+    const outsider = await upload<ImportBody>(
+      importsRoute.POST,
+      team.farmId,
+      team.outsider,
+      { name: "a.csv", data: "x" },
+      "weather_csv",
+      {},
+    );
     expect(outsider.status).toBe(404);
-    const viewer = await upload<ImportBody>(importsRoute.POST, team.farmId, team.viewer, { name: "a.csv", data: "x" }, "weather_csv", {});
+    const viewer = await upload<ImportBody>(
+      importsRoute.POST,
+      team.farmId,
+      team.viewer,
+      { name: "a.csv", data: "x" },
+      "weather_csv",
+      {},
+    );
     expect(viewer.status).toBe(403);
   });
 });
 
 describe("reading imports back", () => {
   it("lists past imports with their reports, and shows one by id only on its farm", async () => {
-    const list = await call<{ data: ImportBody[]; page: { total: number } }>(importsRoute.GET, `/api/v1/farms/${team.farmId}/imports`, { as: team.worker, params: { farmId: team.farmId } });
+    const list = await call<{ data: ImportBody[]; page: { total: number } }>(
+      importsRoute.GET,
+      `/api/v1/farms/${team.farmId}/imports`,
+      { as: team.worker, params: { farmId: team.farmId } },
+    );
     expect(list.status).toBe(200);
     expect(list.body.page.total).toBeGreaterThanOrEqual(4);
     const rejected = list.body.data.find((i) => i.status === "rejected");
     expect(rejected?.report.rejected.length).toBe(6);
-    const one = await call<ImportBody>(importRoute.GET, "/x", { as: team.viewer, params: { farmId: team.farmId, importId: rejected!.id } });
+    const one = await call<ImportBody>(importRoute.GET, "/x", {
+      as: team.viewer,
+      params: { farmId: team.farmId, importId: rejected!.id },
+    });
     expect(one.status).toBe(403);
-    const mine = await call<ImportBody>(importRoute.GET, "/x", { as: team.worker, params: { farmId: team.farmId, importId: rejected!.id } });
+    const mine = await call<ImportBody>(importRoute.GET, "/x", {
+      as: team.worker,
+      params: { farmId: team.farmId, importId: rejected!.id },
+    });
     expect(mine.body).toMatchObject({ id: rejected!.id, status: "rejected", progress: 1 });
     const other = await createFarmTeam();
-    const theirs = await call(importRoute.GET, "/x", { as: other.owner, params: { farmId: other.farmId, importId: rejected!.id } });
+    const theirs = await call(importRoute.GET, "/x", {
+      as: other.owner,
+      params: { farmId: other.farmId, importId: rejected!.id },
+    });
     expect(theirs.status).toBe(404);
   });
 });

@@ -27,12 +27,18 @@ const ids: Record<string, string> = {};
 const DAY = "2026-11-10";
 
 async function reading(gauge: string, depthMm: number): Promise<string> {
-  const [row] = await db("rain_readings").insert({ gauge_id: gauge, read_at: "2026-11-10T22:00:00Z", rain_date: DAY, depth_mm: depthMm }).returning("id");
+  const [row] = await db("rain_readings")
+    .insert({ gauge_id: gauge, read_at: "2026-11-10T22:00:00Z", rain_date: DAY, depth_mm: depthMm })
+    .returning("id");
   return row.id;
 }
 
 const list = (as = team.worker, query = "") =>
-  call<{ data: Flag[]; page: { total: number } }>(flagsRoute.GET, `/api/v1/farms/${team.farmId}/flags${query}`, { as, params: { farmId: team.farmId } });
+  call<{ data: Flag[]; page: { total: number } }>(
+    flagsRoute.GET,
+    `/api/v1/farms/${team.farmId}/flags${query}`,
+    { as, params: { farmId: team.farmId } },
+  );
 const decide = (flagId: string, body: unknown, as = team.agronomist, farmId = team.farmId) =>
   call<Flag>(flagRoute.PATCH, "/x", { method: "PATCH", as, params: { farmId, flagId }, body });
 
@@ -46,12 +52,24 @@ beforeAll(async () => {
   ids.east = await reading(ids.East ?? "", 18);
   ids.west = await reading(ids.West ?? "", 21);
   ids.mid = await reading(ids.Mid ?? "", 0);
-  const [station] = await db("weather_stations").insert({ farm_id: team.farmId, name: "Met", latitude: -34.4, longitude: 146 }).returning("id");
+  const [station] = await db("weather_stations")
+    .insert({ farm_id: team.farmId, name: "Met", latitude: -34.4, longitude: 146 })
+    .returning("id");
   const [w] = await db("weather_days")
-    .insert({ station_id: station.id, date: DAY, kind: "observed", tmax_c: 55, tmin_c: 20, wind_ms: 19, rain_mm: 20 })
+    .insert({
+      station_id: station.id,
+      date: DAY,
+      kind: "observed",
+      tmax_c: 55,
+      tmin_c: 20,
+      wind_ms: 19,
+      rain_mm: 20,
+    })
     .returning("id");
   ids.weather = w.id;
-  const [field] = await db("fields").insert({ farm_id: team.farmId, name: "Block 1", area_ha: 10 }).returning("id");
+  const [field] = await db("fields")
+    .insert({ farm_id: team.farmId, name: "Block 1", area_ha: 10 })
+    .returning("id");
   ids.field = field.id;
 });
 
@@ -76,7 +94,10 @@ describe("running quality control", () => {
     const weather = await db("weather_days").where({ id: ids.weather }).first();
     expect(weather).toMatchObject({ tmax_c: 55, wind_ms: 19, flagged: true });
     expect(weather.flag_reason.split("; ")).toHaveLength(2);
-    expect(await db("rain_readings").where({ id: ids.east }).first()).toMatchObject({ flagged: false, flag_reason: null });
+    expect(await db("rain_readings").where({ id: ids.east }).first()).toMatchObject({
+      flagged: false,
+      flag_reason: null,
+    });
   });
 
   it("raises nothing twice when run again", async () => {
@@ -102,9 +123,17 @@ describe("the flags API", () => {
     const res = await decide(flag.id, { status: "accepted", reason: "gauge was covered for harvest" });
     expect(res.status).toBe(200);
     expect(res.body).toMatchObject({ status: "accepted", decidedBy: team.agronomist.id });
-    expect(await db("rain_readings").where({ id: ids.mid }).first()).toMatchObject({ depth_mm: 0, flagged: false, flag_reason: null });
+    expect(await db("rain_readings").where({ id: ids.mid }).first()).toMatchObject({
+      depth_mm: 0,
+      flagged: false,
+      flag_reason: null,
+    });
     const entry = await db("audit_log").where({ entity: "qc_flag", entity_id: flag.id }).first();
-    expect(entry).toMatchObject({ user_id: team.agronomist.id, action: "qc.decide", reason: "gauge was covered for harvest" });
+    expect(entry).toMatchObject({
+      user_id: team.agronomist.id,
+      action: "qc.decide",
+      reason: "gauge was covered for harvest",
+    });
     expect(entry.before.status).toBe("open");
     expect(entry.after.status).toBe("accepted");
     // whether a value counts changes the account from that day on
@@ -120,7 +149,11 @@ describe("the flags API", () => {
     const bare = await decide(flag.id, { status: "overridden" });
     expect(bare.status).toBe(422);
     expect(bare.body).toMatchObject({ error: { fields: { reason: "Say why the value is set aside" } } });
-    const res = await decide(flag.id, { status: "overridden", reason: "anemometer cup broken" }, team.manager);
+    const res = await decide(
+      flag.id,
+      { status: "overridden", reason: "anemometer cup broken" },
+      team.manager,
+    );
     expect(res.body).toMatchObject({ status: "overridden", reason: "anemometer cup broken" });
     const weather = await db("weather_days").where({ id: ids.weather }).first();
     expect(weather.flagged).toBe(true);

@@ -1,10 +1,28 @@
 /** Each quality-control rule on its own: pure functions, no database. */
 import { describe, expect, it } from "vitest";
-import { neighbourFlags, QC_LIMITS, tipFlags, weatherDayFlags, type GaugeDay, type TipQc, type WeatherDayQc } from "@/lib/qc/rules";
+import {
+  neighbourFlags,
+  QC_LIMITS,
+  tipFlags,
+  weatherDayFlags,
+  type GaugeDay,
+  type TipQc,
+  type WeatherDayQc,
+} from "@/lib/qc/rules";
 
 const day = (over: Partial<WeatherDayQc> = {}): WeatherDayQc => ({
-  id: "w1", date: "2026-11-20", tmaxC: 30, tminC: 15, rhMaxPct: 85, rhMinPct: 30, windMs: 2.5, solarMJm2: 25, rainMm: 0,
-  latitude: -34.4, elevationM: 120, ...over,
+  id: "w1",
+  date: "2026-11-20",
+  tmaxC: 30,
+  tminC: 15,
+  rhMaxPct: 85,
+  rhMinPct: 30,
+  windMs: 2.5,
+  solarMJm2: 25,
+  rainMm: 0,
+  latitude: -34.4,
+  elevationM: 120,
+  ...over,
 });
 const rules = (d: WeatherDayQc) => weatherDayFlags(d).map((f) => f.rule);
 
@@ -21,17 +39,31 @@ describe("weather day ranges (common practice, no source)", () => {
     expect(rules(day({ rhMinPct: 1 }))).toEqual(["humidity_range"]);
     expect(rules(day({ rhMaxPct: 12, rhMinPct: 5 }))).toEqual(["humidity_range"]);
     expect(rules(day({ windMs: 18 }))).toEqual(["wind_range"]);
-    expect(weatherDayFlags(day({ windMs: 18 }))[0]).toMatchObject({ entity: "weather_day", entityId: "w1", date: "2026-11-20" });
+    expect(weatherDayFlags(day({ windMs: 18 }))[0]).toMatchObject({
+      entity: "weather_day",
+      entityId: "w1",
+      date: "2026-11-20",
+    });
   });
 
   it("stops at the limits, not before", () => {
-    expect(rules(day({ rainMm: QC_LIMITS.rainDayMm, windMs: QC_LIMITS.windMs, tmaxC: QC_LIMITS.tmaxC, tminC: QC_LIMITS.tmaxC - QC_LIMITS.diurnalRangeC }))).toEqual([]);
+    expect(
+      rules(
+        day({
+          rainMm: QC_LIMITS.rainDayMm,
+          windMs: QC_LIMITS.windMs,
+          tmaxC: QC_LIMITS.tmaxC,
+          tminC: QC_LIMITS.tmaxC - QC_LIMITS.diurnalRangeC,
+        }),
+      ),
+    ).toEqual([]);
   });
 });
 
 describe("solar radiation above the clear-sky envelope", () => {
   // FAO-56 Example 18 (Uccle, 50°48'N, 100 m, 6 July = day 187): Rso = 30.90 MJ m⁻² d⁻¹.
-  const uccle = (solarMJm2: number) => day({ date: "2026-07-06", latitude: 50.8, elevationM: 100, tmaxC: 21.5, tminC: 12.3, solarMJm2 });
+  const uccle = (solarMJm2: number) =>
+    day({ date: "2026-07-06", latitude: 50.8, elevationM: 100, tmaxC: 21.5, tminC: 12.3, solarMJm2 });
 
   it("accepts measured solar up to the sensor tolerance above Rso", () => {
     expect(rules(uccle(22.07))).toEqual([]); // the example's own Rs
@@ -51,7 +83,12 @@ describe("solar radiation above the clear-sky envelope", () => {
 
 describe("gauges against their neighbours (common practice, no source)", () => {
   const g = (gaugeId: string, depthMm: number, location: GaugeDay["location"] = null): GaugeDay => ({
-    gaugeId, date: "2026-11-20", depthMm, location, entity: "rain_reading", entityIds: [`r-${gaugeId}`],
+    gaugeId,
+    date: "2026-11-20",
+    depthMm,
+    location,
+    entity: "rain_reading",
+    entityIds: [`r-${gaugeId}`],
   });
 
   it("flags a gauge far below the local median, and only that gauge", () => {
@@ -62,7 +99,9 @@ describe("gauges against their neighbours (common practice, no source)", () => {
 
   it("flags a dry gauge when its neighbours were wet", () => {
     // median(12, 9, 0) = 9: the dry gauge is flagged, the two wet ones are not dragged down by it
-    expect(neighbourFlags([g("A", 12), g("B", 9), g("C", 0)]).map((f) => [f.entityId, f.rule])).toEqual([["r-C", "zero_when_neighbours_wet"]]);
+    expect(neighbourFlags([g("A", 12), g("B", 9), g("C", 0)]).map((f) => [f.entityId, f.rule])).toEqual([
+      ["r-C", "zero_when_neighbours_wet"],
+    ]);
   });
 
   it("says nothing on a light day, with one neighbour only, or about gauges too far away", () => {
@@ -75,7 +114,13 @@ describe("gauges against their neighbours (common practice, no source)", () => {
 });
 
 describe("tipping-bucket tips", () => {
-  const tip = (id: string, s: number, depthMm = 0.2): TipQc => ({ id, date: "2026-11-20", atMs: Date.UTC(2026, 10, 20, 4) + s * 1000, depthMm, resolutionMm: 0.2 });
+  const tip = (id: string, s: number, depthMm = 0.2): TipQc => ({
+    id,
+    date: "2026-11-20",
+    atMs: Date.UTC(2026, 10, 20, 4) + s * 1000,
+    depthMm,
+    resolutionMm: 0.2,
+  });
 
   it("flags a tip closer than a bucket can tip twice (switch bounce; REFERENCES facts of practice)", () => {
     const flags = tipFlags([tip("a", 0), tip("b", 30), tip("c", 30.4), tip("d", 75)]);

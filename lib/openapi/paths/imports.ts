@@ -3,8 +3,18 @@ import { IMPORT_KINDS, importFormSchema } from "@/lib/imports/options";
 import { flagDecisionSchema, flagQuerySchema, FLAG_STATUSES } from "@/lib/qc/validation";
 import type { Operation } from "../types";
 
-const page = z.object({ limit: z.number(), offset: z.number(), total: z.number(), nextOffset: z.number().nullable() });
-const problem = z.object({ line: z.number(), column: z.string(), value: z.string().optional(), reason: z.string() });
+const page = z.object({
+  limit: z.number(),
+  offset: z.number(),
+  total: z.number(),
+  nextOffset: z.number().nullable(),
+});
+const problem = z.object({
+  line: z.number(),
+  column: z.string(),
+  value: z.string().optional(),
+  reason: z.string(),
+});
 const importRecord = z.object({
   id: z.uuid(),
   farmId: z.uuid(),
@@ -15,7 +25,14 @@ const importRecord = z.object({
   options: z.unknown(),
   status: z.enum(["processing", "done", "rejected", "failed"]),
   progress: z.number().min(0).max(1),
-  counts: z.object({ rows: z.number(), accepted: z.number(), rejected: z.number(), inserted: z.number(), updated: z.number(), unchanged: z.number() }),
+  counts: z.object({
+    rows: z.number(),
+    accepted: z.number(),
+    rejected: z.number(),
+    inserted: z.number(),
+    updated: z.number(),
+    unchanged: z.number(),
+  }),
   report: z
     .object({
       unit: z.enum(["line", "feature"]),
@@ -45,10 +62,21 @@ const flag = z.object({
   createdAt: z.string(),
 });
 const weatherDay = z.object({
-  id: z.uuid(), stationId: z.uuid(), date: z.string(), kind: z.enum(["observed", "forecast"]),
-  tmaxC: z.number().nullable(), tminC: z.number().nullable(), rhMaxPct: z.number().nullable(), rhMinPct: z.number().nullable(),
-  rhMeanPct: z.number().nullable(), windMs: z.number().nullable(), solarMJm2: z.number().nullable(), rainMm: z.number().nullable(),
-  source: z.string().nullable(), flagged: z.boolean(), flagReason: z.string().nullable(),
+  id: z.uuid(),
+  stationId: z.uuid(),
+  date: z.string(),
+  kind: z.enum(["observed", "forecast"]),
+  tmaxC: z.number().nullable(),
+  tminC: z.number().nullable(),
+  rhMaxPct: z.number().nullable(),
+  rhMinPct: z.number().nullable(),
+  rhMeanPct: z.number().nullable(),
+  windMs: z.number().nullable(),
+  solarMJm2: z.number().nullable(),
+  rainMm: z.number().nullable(),
+  source: z.string().nullable(),
+  flagged: z.boolean(),
+  flagReason: z.string().nullable(),
 });
 const pageQuery = z.object({ limit: z.number().int().optional(), offset: z.number().int().optional() });
 
@@ -107,14 +135,25 @@ export const operations: Operation[] = [
     tag: "Forecast",
     access: "view",
     query: z.object({ days: z.number().int().min(1).max(16).optional() }),
-    response: z.object({ from: z.string(), to: z.string(), stations: z.array(z.object({ stationId: z.uuid(), name: z.string(), days: z.array(weatherDay) })) }),
+    response: z.object({
+      from: z.string(),
+      to: z.string(),
+      stations: z.array(z.object({ stationId: z.uuid(), name: z.string(), days: z.array(weatherDay) })),
+    }),
   },
   {
     method: "post",
     path: "/api/v1/farms/{farmId}/forecast/refresh",
-    summary: "Fetch the forecast now for the farm's stations, replacing earlier forecast days (observed days are kept)",
+    summary:
+      "Fetch the forecast now for the farm's stations, replacing earlier forecast days (observed days are kept)",
     tag: "Forecast",
     access: "log",
-    response: z.object({ from: z.string(), to: z.string(), stations: z.array(z.object({ stationId: z.uuid(), name: z.string(), days: z.number(), replaced: z.number() })) }),
+    response: z.object({
+      from: z.string(),
+      to: z.string(),
+      stations: z.array(
+        z.object({ stationId: z.uuid(), name: z.string(), days: z.number(), replaced: z.number() }),
+      ),
+    }),
   },
 ];

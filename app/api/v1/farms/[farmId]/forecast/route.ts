@@ -19,6 +19,12 @@ export const GET = withFarmRole("view", async ({ req, farmId }) => {
   return {
     from,
     to,
-    stations: await Promise.all(stations.map(async (s) => ({ stationId: s.id, name: s.name, days: await weatherPreferObserved(s.id, from, to) }))),
+    stations: await Promise.all(
+      stations.map(async (s) => ({
+        stationId: s.id,
+        name: s.name,
+        days: await weatherPreferObserved(s.id, from, to),
+      })),
+    ),
   };
 });

@@ -22,5 +22,8 @@ export const POST = withFarmRole("log", async ({ req, farmId, user, role }) => {
   const { record, repeat, background } = await startFileImport({ farmId, userId: user.id, ...upload });
   // 200: the same file was imported before and nothing changed; 202: under way, poll the import.
   const status = repeat ? 200 : background ? 202 : 201;
-  return Response.json({ ...record, repeat }, { status, headers: { location: `/api/v1/farms/${farmId}/imports/${record.id}` } });
+  return Response.json(
+    { ...record, repeat },
+    { status, headers: { location: `/api/v1/farms/${farmId}/imports/${record.id}` } },
+  );
 });
