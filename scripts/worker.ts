@@ -3,6 +3,7 @@
  * (pg-boss) hands each job to one of them.
  */
 import { db } from "@/db/knex";
+import { runAlerts, runDeliverySweep, type AlertsJobData } from "@/lib/jobs/alerts";
 import { runMaintenance } from "@/lib/jobs/maintenance";
 import { runNightly, runNightlyTick } from "@/lib/jobs/nightly";
 import { JOBS, queue } from "@/lib/jobs/queue";
@@ -33,6 +34,14 @@ async function main(): Promise<void> {
   await boss.work(JOBS.nightlyTick, async () => {
     const farms = await runNightlyTick();
     if (farms.length) console.log(`nightly: queued ${farms.length} farm(s)`);
+  });
+  await boss.work<AlertsJobData>(JOBS.alerts, async ([job]) => {
+    if (job) await runAlerts(job.data.farmId);
+  });
+  await boss.schedule(JOBS.alertDeliveries, "*/5 * * * *");
+  await boss.work(JOBS.alertDeliveries, async () => {
+    const run = await runDeliverySweep();
+    if (run.sent + run.failed + run.gone) console.log(`alert deliveries: ${JSON.stringify(run)}`);
   });
   console.log("worker: waiting for jobs");
 

@@ -7,6 +7,7 @@ import { recomputeFarm, type RecomputeResult } from "@/lib/accounts/recompute";
 import { farmStatus } from "@/lib/accounts/status";
 import { farmToday } from "@/lib/farm-time";
 import { addDaysIso } from "@/lib/waterbalance";
+import { runAlerts } from "./alerts";
 import { JOBS, queue } from "./queue";
 
 /**
@@ -49,6 +50,7 @@ export async function runNightly(farmId: string, today?: string): Promise<Nightl
   const recompute = await recomputeFarm(farmId, { today: localToday });
   const outlooks = (await farmOutlooks(farmId, NIGHTLY_OUTLOOK_DAYS))?.outlooks ?? [];
   const alerts = await afterNightly(farmId, outlooks);
+  await runAlerts(farmId);
   return { recompute, outlooks, alerts };
 }
 

@@ -11,6 +11,10 @@ export const JOBS = {
   nightly: "nightly",
   /** hourly: queues `nightly` for the farms whose local night it is (pg-boss keeps one schedule per queue) */
   nightlyTick: "nightly-tick",
+  /** after a recompute: evaluate one farm's alert rules and send what is due; data: { farmId } */
+  alerts: "alerts",
+  /** every few minutes: send alerts held by quiet hours, digests, and retries after backoff */
+  alertDeliveries: "alert-deliveries",
 } as const;
 
 const globalForBoss = globalThis as unknown as { rootbankBoss?: Promise<PgBoss> };
@@ -26,6 +30,8 @@ export function queue(): Promise<PgBoss> {
     await boss.createQueue(JOBS.recompute, { name: JOBS.recompute, policy: "stately" });
     await boss.createQueue(JOBS.nightly, { name: JOBS.nightly, policy: "stately" });
     await boss.createQueue(JOBS.nightlyTick, { name: JOBS.nightlyTick, policy: "standard" });
+    await boss.createQueue(JOBS.alerts, { name: JOBS.alerts, policy: "stately" });
+    await boss.createQueue(JOBS.alertDeliveries, { name: JOBS.alertDeliveries, policy: "standard" });
     return boss;
   })();
   return globalForBoss.rootbankBoss;

@@ -1,5 +1,6 @@
 import "server-only";
 import { recomputeFarm, type RecomputeResult } from "@/lib/accounts/recompute";
+import { requestAlerts } from "./alerts";
 
 /** Data of a `recompute` job. */
 export interface RecomputeJobData {
@@ -14,5 +15,6 @@ export async function runRecomputeJob(data: RecomputeJobData): Promise<Recompute
   const result = await recomputeFarm(data.farmId);
   const skipped = result.skipped.length ? `, skipped ${result.skipped.map((s) => `${s.fieldId} (${s.reason})`).join("; ")}` : "";
   console.log(`recompute ${data.farmId}: ${result.fields} fields, ${result.days} days in ${Math.round(result.ms)} ms${skipped}`);
+  if (result.fields > 0) await requestAlerts(data.farmId);
   return result;
 }

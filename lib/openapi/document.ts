@@ -5,8 +5,9 @@ import { operations as setup } from "./paths/setup";
 import { operations as observations } from "./paths/observations";
 import { operations as accounts } from "./paths/accounts";
 import { operations as imports } from "./paths/imports";
+import { operations as alerts } from "./paths/alerts";
 
-export const OPERATIONS: readonly Operation[] = [...people, ...setup, ...observations, ...accounts, ...imports];
+export const OPERATIONS: readonly Operation[] = [...people, ...setup, ...observations, ...accounts, ...imports, ...alerts];
 
 const errorSchema = {
   type: "object",
