@@ -4,6 +4,7 @@
  * person's farm data, and the log keeps its own queue in IndexedDB instead. Cached pages are dropped
  * when anyone signs in or out, so the next person on a shared phone never sees the last one's page.
  */
+importScripts("/sw-alerts.js");
 const VERSION = "v1";
 const SHELL = `rootbank-shell-${VERSION}`;
 const PAGES = `rootbank-pages-${VERSION}`;
