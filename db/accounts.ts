@@ -28,24 +28,40 @@ export interface AccountColumns {
   pAdjusted: number[];
   rootDepthM: number[];
   soilCheckReset: boolean[];
-  provenance: string[];
+  /** 1-based index into provenanceTexts: most days of a batch share their provenance */
+  provenanceIndex: number[];
+  provenanceTexts: string[];
 }
 
-/** Rows per INSERT statement: large enough to amortise the round trip, small enough to keep memory flat. */
-const INSERT_CHUNK = 25_000;
-
-/** `{a,b,c}` array literal of numbers for a float8[] parameter (faster than letting the driver quote each). */
-function floatArray(values: readonly number[], from: number, to: number): string {
-  return `{${values.slice(from, to).join(",")}}`;
+/** `'…'` SQL string literal (standard_conforming_strings is on, the PostgreSQL default, so only quotes double). */
+function sqlText(s: string): string {
+  return `'${s.replace(/'/g, "''")}'`;
 }
 
-function textArray(values: readonly string[], from: number, to: number): string {
+/** Array literal of uuids, dates, numbers or booleans (values Rootbank generated; none needs quoting). */
+function plainArray(values: readonly (string | number | boolean)[], type: string): string {
+  return `'{${values.join(",")}}'::${type}[]`;
+}
+
+/** Array literal of arbitrary texts: each element in double quotes with backslashes and quotes escaped. */
+function textArray(values: readonly string[]): string {
   let s = "{";
-  for (let i = from; i < to; i++) {
-    if (i > from) s += ",";
+  for (let i = 0; i < values.length; i++) {
+    if (i > 0) s += ",";
     s += `"${values[i]!.replace(/\\/g, "\\\\").replace(/"/g, '\\"')}"`;
   }
-  return s + "}";
+  return `${sqlText(s + "}")}::text[]`;
+}
+
+/**
+ * The driver's error quotes the whole statement (megabytes of literals here); keep PostgreSQL's own
+ * message, code and constraint only.
+ */
+function shortError(err: unknown): unknown {
+  if (!(err instanceof Error)) return err;
+  const pg = err as Error & { code?: string; constraint?: string; detail?: string };
+  const reason = pg.message.includes(" - ") ? pg.message.slice(pg.message.lastIndexOf(" - ") + 3) : pg.message;
+  return Object.assign(new Error(`rewriting account days: ${reason}`), { code: pg.code, constraint: pg.constraint, detail: pg.detail });
 }
 
 const FLOAT_COLUMNS = [
@@ -69,40 +85,53 @@ const FLOAT_COLUMNS = [
   ["root_depth_m", "rootDepthM"],
 ] as const satisfies readonly (readonly [string, keyof AccountColumns])[];
 
-const INSERT_SQL =
-  `insert into account_days (field_id, date, planting_id, ${FLOAT_COLUMNS.map(([c]) => c).join(", ")}, soil_check_reset, provenance) ` +
-  `select field_id, date, planting_id, ${FLOAT_COLUMNS.map(([c]) => c).join(", ")}, soil_check_reset, provenance::jsonb ` +
-  `from unnest(?::uuid[], ?::date[], ?::uuid[], ${FLOAT_COLUMNS.map(() => "?::float8[]").join(", ")}, ?::boolean[], ?::text[]) ` +
-  `as v(field_id, date, planting_id, ${FLOAT_COLUMNS.map(([c]) => c).join(", ")}, soil_check_reset, provenance)`;
-
 /**
- * Replaces fields' account days: deletes each field's days from its date on, then inserts `rows` in
- * multi-row statements. Call inside the transaction that also clears the fields' dirty marks.
+ * Rewrites fields' account days in one round trip: deletes each field's days from its date on, inserts
+ * `rows` (provenance parsed once per distinct text), and clears the marks whose counter is unchanged
+ * (compare-and-set). The statements go as one simple query, which PostgreSQL runs as one implicit
+ * transaction, so the server works while the caller computes the next batch. Returns the ids cleared.
  */
-export async function replaceAccountDays(
-  trx: Knex.Transaction,
+export async function rewriteAccountDays(
   deleteFrom: readonly { fieldId: string; fromDate: string }[],
   rows: AccountColumns,
-): Promise<number> {
+  marks: readonly { fieldId: string; seq: number }[],
+  conn: Knex = db,
+): Promise<string[]> {
+  const statements: string[] = [];
   if (deleteFrom.length > 0) {
-    await trx.raw(
-      "delete from account_days a using unnest(?::uuid[], ?::date[]) as v(field_id, from_date) where a.field_id = v.field_id and a.date >= v.from_date",
-      [`{${deleteFrom.map((d) => d.fieldId).join(",")}}`, `{${deleteFrom.map((d) => d.fromDate).join(",")}}`],
+    statements.push(
+      `delete from account_days a using unnest(${plainArray(deleteFrom.map((d) => d.fieldId), "uuid")}, ${plainArray(deleteFrom.map((d) => d.fromDate), "date")}) ` +
+        "as v(field_id, from_date) where a.field_id = v.field_id and a.date >= v.from_date",
     );
   }
-  const total = rows.fieldId.length;
-  for (let from = 0; from < total; from += INSERT_CHUNK) {
-    const to = Math.min(total, from + INSERT_CHUNK);
-    await trx.raw(INSERT_SQL, [
-      `{${rows.fieldId.slice(from, to).join(",")}}`,
-      `{${rows.date.slice(from, to).join(",")}}`,
-      `{${rows.plantingId.slice(from, to).join(",")}}`,
-      ...FLOAT_COLUMNS.map(([, key]) => floatArray(rows[key] as number[], from, to)),
-      `{${rows.soilCheckReset.slice(from, to).map((b) => (b ? "t" : "f")).join(",")}}`,
-      textArray(rows.provenance, from, to),
-    ]);
+  if (rows.fieldId.length > 0) {
+    const names = FLOAT_COLUMNS.map(([c]) => c).join(", ");
+    statements.push(
+      `insert into account_days (field_id, date, planting_id, ${names}, soil_check_reset, provenance) ` +
+        `select v.field_id, v.date, v.planting_id, ${FLOAT_COLUMNS.map(([c]) => `v.${c}`).join(", ")}, v.soil_check_reset, p.doc ` +
+        `from unnest(${plainArray(rows.fieldId, "uuid")}, ${plainArray(rows.date, "date")}, ${plainArray(rows.plantingId, "uuid")}, ` +
+        `${FLOAT_COLUMNS.map(([, key]) => plainArray(rows[key] as number[], "float8")).join(", ")}, ` +
+        `${plainArray(rows.soilCheckReset.map((b) => (b ? "t" : "f")), "boolean")}, ${plainArray(rows.provenanceIndex, "int")}) ` +
+        `as v(field_id, date, planting_id, ${names}, soil_check_reset, provenance_index) ` +
+        `join (select ord::int as idx, t.doc::jsonb as doc from unnest(${textArray(rows.provenanceTexts)}) with ordinality as t(doc, ord)) p ` +
+        "on p.idx = v.provenance_index",
+    );
   }
-  return total;
+  if (marks.length > 0) {
+    statements.push(
+      `update fields f set account_dirty_from = null from unnest(${plainArray(marks.map((m) => m.fieldId), "uuid")}, ` +
+        `${plainArray(marks.map((m) => m.seq), "bigint")}) as v(id, seq) where f.id = v.id and f.account_dirty_seq = v.seq returning f.id`,
+    );
+  }
+  if (statements.length === 0) return [];
+  let res: { rows?: { id: string }[] } | { rows?: { id: string }[] }[];
+  try {
+    res = (await conn.raw(statements.join(";\n"))) as typeof res;
+  } catch (err) {
+    throw shortError(err);
+  }
+  const last = Array.isArray(res) ? res[res.length - 1] : res;
+  return marks.length > 0 ? (last?.rows ?? []).map((r) => r.id) : [];
 }
 
 /**

@@ -1,5 +1,5 @@
 import "server-only";
-import { carriedDepletions, clearDirtyMarks, replaceAccountDays } from "@/db/accounts";
+import { carriedDepletions, rewriteAccountDays } from "@/db/accounts";
 import { loadFarmObservations, loadFarmSetup, type AccountField, type AccountPlanting } from "@/db/account-inputs";
 import { db } from "@/db/knex";
 import { farmToday } from "@/lib/farm-time";
@@ -106,12 +106,17 @@ export async function recomputeFarm(farmId: string, options: RecomputeOptions = 
 
   const batchSize = options.batchSize ?? 250;
   let pending: Promise<void> = Promise.resolve();
+  let failure: { err: unknown } | null = null;
   for (let b = 0; b < setup.fields.length; b += batchSize) {
+    if (failure) break;
     const batch = setup.fields.slice(b, b + batchSize);
     const rows = emptyColumns();
     const deleteFrom: { fieldId: string; fromDate: string }[] = [];
     const marks: { fieldId: string; seq: number }[] = [];
-    for (const f of batch) {
+    for (let k = 0; k < batch.length; k++) {
+      const f = batch[k]!;
+      // Let the previous batch's statement drain onto the socket while this one is computed.
+      if (k % 25 === 24) await new Promise((resolve) => setImmediate(resolve));
       const mark = rows.fieldId.length;
       const outcome = computeField(f, plans.get(f.id) ?? [], (segment) => {
         const run = buildFieldRun(ctx, etoCache, f, segment.planting, { from: segment.from, to: segment.to, initialDepletionMm: segment.initialDepletionMm ?? 0 }, byField);
@@ -133,12 +138,12 @@ export async function recomputeFarm(farmId: string, options: RecomputeOptions = 
     const previous = pending;
     pending = (async () => {
       await previous;
-      await db.transaction(async (trx) => {
-        await replaceAccountDays(trx, deleteFrom, rows);
-        result.cleared += (await clearDirtyMarks(trx, marks)).length;
-      });
+      result.cleared += (await rewriteAccountDays(deleteFrom, rows, marks)).length;
     })();
-    await Promise.race([pending, new Promise((r) => setImmediate(r))]);
+    // A failed write stops the run at the next batch instead of after the last one.
+    pending.catch((err: unknown) => {
+      failure ??= { err };
+    });
   }
   await pending;
   return { ...result, ms: performance.now() - started };

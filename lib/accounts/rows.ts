@@ -14,21 +14,38 @@ export function emptyColumns(): AccountColumns {
     fieldId: [], date: [], plantingId: [], etoMm: [], kc: [], etcMm: [], ks: [], etActualMm: [], rainMm: [], runoffMm: [],
     effectiveRainMm: [], irrigationGrossMm: [], irrigationNetMm: [], capillaryRiseMm: [], deepPercolationMm: [],
     depletionStartMm: [], depletionEndMm: [], tawMm: [], rawMm: [], pAdjusted: [], rootDepthM: [], soilCheckReset: [],
-    provenance: [],
+    provenanceIndex: [], provenanceTexts: [],
   };
 }
 
 /** Drops rows from `length` on (a field whose later stretch failed leaves none of its rows behind). */
 export function truncateColumns(cols: AccountColumns, length: number): void {
-  for (const list of Object.values(cols) as unknown[][]) list.length = length;
+  for (const [key, list] of Object.entries(cols) as [keyof AccountColumns, unknown[]][]) if (key !== "provenanceTexts") list.length = length;
 }
 
 const CONDITIONS = ["dry", "average", "wet"] as const;
 const IRRIGATION_BASIS = ["none", "gross", "net", "mixed"] as const;
 
-/** Serialises provenance pieces once per distinct object. */
+/** Serialises provenance pieces once per distinct object, and numbers each batch's distinct documents. */
 export class ProvenanceWriter {
   private readonly pieces = new WeakMap<object, string>();
+  private documents = new Map<string, number>();
+  private batch: AccountColumns | null = null;
+
+  /** The 1-based index of `json` among `out`'s distinct provenance documents. */
+  index(out: AccountColumns, json: string): number {
+    if (this.batch !== out) {
+      this.batch = out;
+      this.documents = new Map();
+    }
+    let k = this.documents.get(json);
+    if (k === undefined) {
+      out.provenanceTexts.push(json);
+      k = out.provenanceTexts.length;
+      this.documents.set(json, k);
+    }
+    return k;
+  }
 
   piece(o: object): string {
     let s = this.pieces.get(o);
@@ -97,7 +114,7 @@ export function appendRunColumns(out: AccountColumns, run: FieldRun, cols: Field
     if (dual) json += `,"kcb":${crop.kc[d]},"ke":${loop.ke[d]}`;
     if (reset) json += `,"carriedDepletionMm":${loop.carriedDepletionMm[d]}`;
     if (qc) json += `,"qc":${JSON.stringify(qc)}`;
-    out.provenance.push(json + "}");
+    out.provenanceIndex.push(writer.index(out, json + "}"));
     date = nextIsoDate(date);
   }
   return n;

@@ -1,0 +1,53 @@
+/**
+ * The farm map's status read: GET /api/v1/farms/:farmId/status for 2,000 fields with a year of stored
+ * account days each, through the real route handler (session, role check, query, JSON).
+ * Run: DATABASE_URL=<test database> NEXTAUTH_SECRET=… node --conditions=react-server --import tsx tests/bench/map-status.bench.ts
+ * Target: median under 100 ms.
+ */
+import * as statusRoute from "@/app/api/v1/farms/[farmId]/status/route";
+import { db } from "@/db/knex";
+import { recomputeFarm } from "@/lib/accounts/recompute";
+import { call } from "../helpers/api";
+import { BENCH_FIELDS, createBenchFarm } from "./bench-farm";
+
+const TARGET_MEDIAN_MS = 100;
+const WARM_UP = 5;
+const RUNS = 40;
+
+function quantile(sorted: readonly number[], q: number): number {
+  return sorted[Math.min(sorted.length - 1, Math.floor(q * sorted.length))]!;
+}
+
+async function main(): Promise<void> {
+  const farm = await createBenchFarm("status");
+  try {
+    const filled = await recomputeFarm(farm.farmId, { all: true, today: farm.today });
+    console.log(`bench farm: ${filled.fields} fields, ${filled.days.toLocaleString("en")} stored account days`);
+    const url = `/api/v1/farms/${farm.farmId}/status`;
+    const params = { farmId: farm.farmId };
+    for (let k = 0; k < WARM_UP; k++) await call(statusRoute.GET, url, { as: farm.user, params });
+    const times: number[] = [];
+    let rows = 0;
+    for (let k = 0; k < RUNS; k++) {
+      const t = performance.now();
+      const res = await call<{ data: unknown[] }>(statusRoute.GET, url, { as: farm.user, params });
+      times.push(performance.now() - t);
+      if (res.status !== 200) throw new Error(`status answered ${res.status}`);
+      rows = res.body.data.length;
+    }
+    times.sort((a, b) => a - b);
+    const median = quantile(times, 0.5);
+    console.log(
+      `GET status, ${rows} of ${BENCH_FIELDS} fields: median ${median.toFixed(1)} ms, p90 ${quantile(times, 0.9).toFixed(1)} ms, ` +
+        `min ${times[0]!.toFixed(1)} ms over ${RUNS} calls — target median < ${TARGET_MEDIAN_MS} ms: ${median < TARGET_MEDIAN_MS ? "met" : "NOT met"}`,
+    );
+  } finally {
+    await farm.remove();
+    await db.destroy();
+  }
+}
+
+main().catch((err: unknown) => {
+  console.error(err);
+  process.exit(1);
+});
