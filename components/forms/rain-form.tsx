@@ -82,7 +82,7 @@ export function RainForm({ farmId, timeZone, gauges, onLog }: { farmId: string; 
     }
   }
 
-  if (gauges.length === 0) return <p>This farm has no rain gauges yet. A farm manager adds them under Set-up.</p>;
+  if (gauges.length === 0) return <p>This farm has no gauges read by hand. A farm manager adds them under Set-up; recording gauges send their own records.</p>;
   return (
     <form onSubmit={submit} className="flex flex-col gap-4" noValidate aria-label="Rain reading">
       <ChoiceButtons
@@ -90,7 +90,7 @@ export function RainForm({ farmId, timeZone, gauges, onLog }: { farmId: string; 
         name="gaugeId"
         value={gaugeId}
         onChange={setGaugeId}
-        options={gauges.map((g) => ({ value: g.id, label: g.name, hint: g.kind === "recording" ? "recording" : undefined }))}
+        options={gauges.map((g) => ({ value: g.id, label: g.name }))}
       />
       {how && <p className="-mt-2 text-sm text-ink/70">Chosen for you: {how}.</p>}
       {errors.gaugeId && <p className="text-sm font-bold text-clay-700">{errors.gaugeId}</p>}

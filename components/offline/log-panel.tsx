@@ -74,7 +74,7 @@ export function LogPanel({ farmId, userId, timeZone, ...initial }: LogPanelProps
         </Notice>
       )}
       <section id="log-form" role="tabpanel" aria-labelledby={`tab-${tab}`} className="rounded-2xl bg-white p-4 shadow-sm ring-1 ring-river-100">
-        {tab === "rain" && <RainForm farmId={farmId} timeZone={timeZone} gauges={gauges} onLog={log} />}
+        {tab === "rain" && <RainForm farmId={farmId} timeZone={timeZone} gauges={gauges.filter((g) => g.kind === "manual")} onLog={log} />}
         {tab === "irrigation" && <IrrigationForm timeZone={timeZone} fields={fields} systems={systems} onLog={log} />}
         {tab === "soil" && <SoilCheckForm timeZone={timeZone} fields={fields} onLog={log} />}
       </section>

@@ -2,9 +2,9 @@ import AxeBuilder from "@axe-core/playwright";
 import { expect, test, type Page } from "@playwright/test";
 import { DEMO, openKestrelBend } from "./helpers";
 
-// The demo farm's Shed gauge, read by hand, and Spoonbill, a field with that gauge as its own (seeds/).
-const GAUGE = "Shed gauge";
-const FIELD = "Spoonbill";
+// Kestrel Bend's River gauge, read by hand, and River Flat 1, a field with that gauge as its own (seeds/).
+const GAUGE = "River gauge";
+const FIELD = "River Flat 1";
 // Compiling the app on first request and the recompute worker can each take a while on a busy machine.
 test.setTimeout(300_000);
 
