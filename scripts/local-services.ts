@@ -6,6 +6,8 @@
 import path from "node:path";
 import { startForecastFake } from "./fakes/forecast";
 import { startInbox } from "./fakes/inbox";
+import { startPushService } from "./fakes/push";
+import { ensureLocalCert, localTls } from "./fakes/tls";
 
 const smtpPort = Number(process.env.LOCAL_INBOX_SMTP_PORT ?? 2525);
 const httpPort = Number(process.env.LOCAL_INBOX_HTTP_PORT ?? 2580);
@@ -16,10 +18,16 @@ const forecastPort = Number(process.env.FAKE_FORECAST_PORT ?? 2590);
 const forecast = startForecastFake({ port: forecastPort });
 void forecast.then(({ url }) => console.log(`forecast service: ${url}/v1/forecast`));
 
+// Web Push (RFC 8030) for alerts; its certificate is trusted by the app through NODE_EXTRA_CA_CERTS.
+const pushPort = Number(process.env.FAKE_PUSH_PORT ?? 2595);
+const push = ensureLocalCert().then(() => startPushService(pushPort, localTls()));
+void push.then(() => console.log(`push service: https://127.0.0.1:${pushPort}/devices`));
+
 function stop() {
   inbox.smtp.close(() => undefined);
   inbox.http.close();
   void forecast.then(({ server }) => server.close());
+  void push.then((server) => server.close());
   process.exit(0);
 }
 process.on("SIGTERM", stop);
