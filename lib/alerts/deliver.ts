@@ -4,20 +4,14 @@ import { db } from "@/db/knex";
 import { forgetSubscription, markPushed } from "@/db/push-subscriptions";
 import { env } from "@/lib/env";
 import { sendMail } from "@/lib/mail/send";
+import { backoffMinutes, MAX_ATTEMPTS } from "./backoff";
 import { alertMail, digestMail, pushPayload } from "./messages";
 import { vapidKeys } from "./vapid";
 
-/** Attempts before a delivery is given up (about two hours of backoff in all; common practice, no source). */
-export const MAX_ATTEMPTS = 6;
 /** How long a claimed delivery is held by one worker before another may take it over. */
 const LEASE_MS = 5 * 60_000;
 /** A push not delivered within this many seconds is dropped by the push service (stale advice helps no one). */
 export const PUSH_TTL_S = 12 * 3600;
-
-/** Minutes to wait before attempt `attempts + 1`: 1, 2, 4, 8, 16 … capped at an hour. */
-export function backoffMinutes(attempts: number): number {
-  return Math.min(60, 2 ** Math.max(0, attempts - 1));
-}
 
 interface Claimed {
   id: string;
