@@ -276,7 +276,7 @@ function same(a: Cell | undefined, b: Cell | undefined): boolean {
 
 export interface UpsertSpec {
   table: string;
-  /** columns that identify a row (a unique key of the table) */
+  /** columns that identify a row within `scope` (with the scope, a unique key of the table) */
   keys: string[];
   /** columns whose values the file supplies; a row whose values all match is left alone */
   values: string[];
@@ -307,13 +307,19 @@ export async function upsertUnchanged(
   const keyed = (c: Cell | undefined) => (c === undefined ? null : c);
   for (let start = 0; start < rows.length; start += CHUNK) {
     const chunk = rows.slice(start, start + CHUNK);
-    const existing = (await trx(spec.table)
-      .where(spec.scope ?? {})
-      .whereIn(
+    const query = trx(spec.table).where(spec.scope ?? {});
+    // One key column is a plain `in` list the index answers at once; a list of row values costs the
+    // planner an index probe per row to plan, which is slow for hundreds of rows.
+    const [only] = spec.keys;
+    if (spec.keys.length === 1 && only) {
+      query.whereIn(only, chunk.map((r) => keyed(r[only])) as (string | number | Date | null)[]);
+    } else {
+      query.whereIn(
         spec.keys,
         chunk.map((r) => spec.keys.map((k) => keyed(r[k])) as (string | number | Date | null)[]),
-      )
-      .select("*")) as Row[];
+      );
+    }
+    const existing = (await query.select("*")) as Row[];
     const byKey = new Map(existing.map((r) => [keyOf(r), r]));
     const inserts: Row[] = [];
     for (const row of chunk) {

@@ -84,8 +84,8 @@ export async function prepare(job: Job): Promise<Prepared> {
           trx,
           {
             table: "fields",
-            keys: ["farm_id", "name"],
-            scope: { archived_at: null },
+            keys: ["name"],
+            scope: { farm_id: farmId, archived_at: null },
             values: ["boundary", "area_ha", "centroid_lat", "centroid_lon"],
             onInsert: { created_by: userId, updated_by: userId },
             onUpdate: { updated_by: userId },
@@ -123,7 +123,8 @@ export async function prepare(job: Job): Promise<Prepared> {
           trx,
           {
             table: "weather_days",
-            keys: ["station_id", "date", "kind"],
+            keys: ["date"],
+            scope: { station_id: stationId, kind: "observed" },
             values: WEATHER_VALUE_COLUMNS,
             onInsert: { created_by: userId, source: "import" },
             onUpdate: { updated_by: userId, source: "import" },
@@ -150,7 +151,8 @@ export async function prepare(job: Job): Promise<Prepared> {
           trx,
           {
             table: "rain_records",
-            keys: ["gauge_id", "at"],
+            keys: ["at"],
+            scope: { gauge_id: request.options.gaugeId },
             values: ["depth_mm", "interval_s"],
             onInsert: { created_by: userId },
             audit: { ...auditCtx, entity: "rain_record" },
