@@ -25,35 +25,41 @@ export function truncateColumns(cols: AccountColumns, length: number): void {
 
 const CONDITIONS = ["dry", "average", "wet"] as const;
 const IRRIGATION_BASIS = ["none", "gross", "net", "mixed"] as const;
+const NONE = { id: 0, json: '{"method":"none"}' };
 
-/** Serialises provenance pieces once per distinct object, and numbers each batch's distinct documents. */
+/**
+ * Serialises provenance pieces once per distinct object, and numbers each batch's distinct documents.
+ * A day's document is looked up by a short key of its pieces' ids, so the JSON text is built only the
+ * first time a combination appears in a batch.
+ */
 export class ProvenanceWriter {
-  private readonly pieces = new WeakMap<object, string>();
+  private readonly pieces = new WeakMap<object, { id: number; json: string }>();
+  private nextId = 1;
   private documents = new Map<string, number>();
   private batch: AccountColumns | null = null;
 
-  /** The 1-based index of `json` among `out`'s distinct provenance documents. */
-  index(out: AccountColumns, json: string): number {
+  piece(o: object): { id: number; json: string } {
+    let p = this.pieces.get(o);
+    if (p === undefined) {
+      p = { id: this.nextId++, json: JSON.stringify(o) };
+      this.pieces.set(o, p);
+    }
+    return p;
+  }
+
+  /** The 1-based index of the document with `key` among `out`'s distinct documents; `build` makes its text. */
+  index(out: AccountColumns, key: string, build: () => string): number {
     if (this.batch !== out) {
       this.batch = out;
       this.documents = new Map();
     }
-    let k = this.documents.get(json);
+    let k = this.documents.get(key);
     if (k === undefined) {
-      out.provenanceTexts.push(json);
+      out.provenanceTexts.push(build());
       k = out.provenanceTexts.length;
-      this.documents.set(json, k);
+      this.documents.set(key, k);
     }
     return k;
-  }
-
-  piece(o: object): string {
-    let s = this.pieces.get(o);
-    if (s === undefined) {
-      s = JSON.stringify(o);
-      this.pieces.set(o, s);
-    }
-    return s;
   }
 }
 
@@ -76,7 +82,6 @@ export function appendRunColumns(out: AccountColumns, run: FieldRun, cols: Field
           source: water.curveNumberSource,
         },
   );
-  const none = '{"method":"none"}';
   let date = run.input.startDate;
   for (let d = 0; d < n; d++) {
     out.fieldId.push(fieldId);
@@ -106,15 +111,22 @@ export function appendRunColumns(out: AccountColumns, run: FieldRun, cols: Field
     const storm = cols.runoffProvenance[d];
     const cond = loop.condition[d]!;
     const cn = cond >= 0 ? cnProv[cond] : null;
-    const runoff = storm ? writer.piece(storm) : cn ? writer.piece(cn) : none;
+    const runoff = storm ? writer.piece(storm) : cn ? writer.piece(cn) : NONE;
+    const eto = writer.piece(run.eto.provenance[d]!);
+    const rain = writer.piece(run.rainSources[d]!);
+    const irrigation = IRRIGATION_BASIS[water.irrigationBasis[d]!];
+    const stage = crop.stage[d];
     const qc = run.qc.get(date);
-    let json =
-      `{"eto":${writer.piece(run.eto.provenance[d]!)},"rain":${writer.piece(run.rainSources[d]!)},"runoff":${runoff}` +
-      `,"irrigation":"${IRRIGATION_BASIS[water.irrigationBasis[d]!]}","stage":"${crop.stage[d]}"`;
-    if (dual) json += `,"kcb":${crop.kc[d]},"ke":${loop.ke[d]}`;
-    if (reset) json += `,"carriedDepletionMm":${loop.carriedDepletionMm[d]}`;
-    if (qc) json += `,"qc":${JSON.stringify(qc)}`;
-    out.provenanceIndex.push(writer.index(out, json + "}"));
+    const build = (): string => {
+      let json = `{"eto":${eto.json},"rain":${rain.json},"runoff":${runoff.json},"irrigation":"${irrigation}","stage":"${stage}"`;
+      if (dual) json += `,"kcb":${crop.kc[d]},"ke":${loop.ke[d]}`;
+      if (reset) json += `,"carriedDepletionMm":${loop.carriedDepletionMm[d]}`;
+      if (qc) json += `,"qc":${JSON.stringify(qc)}`;
+      return json + "}";
+    };
+    // Days with their own numbers in the document (dual coefficient, soil-check resets) are never shared.
+    const key = dual || reset ? `${fieldId}${date}` : `${eto.id},${rain.id},${runoff.id},${irrigation},${stage}${qc ? qc.join() : ""}`;
+    out.provenanceIndex.push(writer.index(out, key, build));
     date = nextIsoDate(date);
   }
   return n;
