@@ -4,6 +4,7 @@ import type { DailyWeather, EstimatedInput, StationSite } from "./reference-et";
 import type { GaugeWeight } from "./gauge-weights";
 import type { KineticEnergyMethod, SealingOptions } from "./rain-energy";
 import type { SoilSpec } from "./soils";
+import type { StationEtoSeries } from "./field-season";
 import type { HyetographOptions, RainRecord } from "./storms";
 
 /** Shapes of {@link runFieldAccount}'s input and output: what the data layer passes and stores. */
@@ -153,6 +154,11 @@ export interface FieldAccountInput {
   /** needed when any weather day is raw */
   station?: StationSite;
   weather: readonly WeatherDayInput[];
+  /**
+   * ETo already computed for the field's station (computeStationEto), covering the span; when given,
+   * `weather` is read only for the Kc climate adjustment and the dual coefficient's Kc max.
+   */
+  eto?: StationEtoSeries;
   rain: readonly RainDayInput[];
   irrigations?: readonly IrrigationEvent[];
   soilChecks?: readonly SoilCheck[];

@@ -9,6 +9,8 @@
  * condition from the start depletion; ET is taken, then water beyond field capacity drains (eq. 88).
  */
 
+import { float64Columns, uint8Columns } from "./arrays";
+
 /** Runoff method of a day in {@link BalanceLoopInput.runoffKind}. */
 export const RUNOFF_NONE = 0;
 export const RUNOFF_CURVE_NUMBER = 1;
@@ -90,22 +92,24 @@ export interface BalanceLoopOutput {
 
 /** Allocates an output block for `nDays` days (reuse it across fields of the same length). */
 export function createBalanceLoopOutput(nDays: number): BalanceLoopOutput {
+  const f = float64Columns(nDays, 13);
+  const b = uint8Columns(nDays, 2);
   return {
-    depletionStartMm: new Float64Array(nDays),
-    depletionEndMm: new Float64Array(nDays),
-    carriedDepletionMm: new Float64Array(nDays),
-    etcMm: new Float64Array(nDays),
-    etcAdjMm: new Float64Array(nDays),
-    ks: new Float64Array(nDays),
-    pAdjusted: new Float64Array(nDays),
-    rawMm: new Float64Array(nDays),
-    runoffMm: new Float64Array(nDays),
-    effectiveRainMm: new Float64Array(nDays),
-    deepPercolationMm: new Float64Array(nDays),
-    condition: new Int8Array(nDays),
-    ke: new Float64Array(nDays),
-    evaporationMm: new Float64Array(nDays),
-    soilCheckApplied: new Uint8Array(nDays),
+    depletionStartMm: f[0]!,
+    depletionEndMm: f[1]!,
+    carriedDepletionMm: f[2]!,
+    etcMm: f[3]!,
+    etcAdjMm: f[4]!,
+    ks: f[5]!,
+    pAdjusted: f[6]!,
+    rawMm: f[7]!,
+    runoffMm: f[8]!,
+    effectiveRainMm: f[9]!,
+    deepPercolationMm: f[10]!,
+    condition: new Int8Array(b[0]!.buffer, b[0]!.byteOffset, nDays),
+    ke: f[11]!,
+    evaporationMm: f[12]!,
+    soilCheckApplied: b[1]!,
   };
 }
 

@@ -1,4 +1,5 @@
 import type { FieldAccountInput, KcUsed, EtoProvenance, WeatherDayInput } from "./account-types";
+import { float64Columns } from "./arrays";
 import type { LoopDual } from "./balance-loop";
 import {
   adjustKcEndForClimate,
@@ -10,11 +11,19 @@ import {
   validateStages,
   type CropStage,
 } from "./crop-coefficient";
-import { isoDateToDayNumber, dayNumberToIsoDate } from "./dates";
+import { dayNumberToIsoDate, dayOfYearOfDayNumber, isoDateToDayNumber } from "./dates";
 import { canopyCoverFraction, kcMax } from "./dual-coefficient";
 import { requireFinite, requireNonNegative, requirePositive, requireRange, WaterBalanceInputError } from "./errors";
 import { windAt2mMs } from "./meteo";
-import { referenceEtDaily, type DailyWeather } from "./reference-et";
+import {
+  computeDailyEtoInto,
+  emptyEtoScratch,
+  estimatedFromMask,
+  siteConstants,
+  validateDailyWeather,
+  type DailyWeather,
+  type SiteConstants,
+} from "./reference-et";
 import { resolveSoil, type ResolvedSoil } from "./soils";
 
 /** Season arrays for one field: ETo, Kc, root depth, TAW and p by day, ready for the balance loop. */
@@ -45,17 +54,10 @@ function isGiven(w: WeatherDayInput): w is { date: string; etoMm: number } {
 
 const GIVEN: EtoProvenance = Object.freeze({ method: "given", estimated: Object.freeze([]) as readonly [] });
 const FILLED: EtoProvenance = Object.freeze({ method: "filled-mean", estimated: Object.freeze(["eto"] as const) });
-const provenanceCache = new Map<string, EtoProvenance>();
-
-function etoProvenance(method: "penman-monteith" | "hargreaves", estimated: readonly string[]): EtoProvenance {
-  const key = `${method}|${estimated.join(",")}`;
-  let p = provenanceCache.get(key);
-  if (!p) {
-    p = Object.freeze({ method, estimated: Object.freeze([...estimated]) as EtoProvenance["estimated"] });
-    provenanceCache.set(key, p);
-  }
-  return p;
-}
+const PM_BY_MASK: readonly EtoProvenance[] = [0, 1, 2, 3, 4, 5, 6, 7].map((m) =>
+  Object.freeze({ method: "penman-monteith" as const, estimated: Object.freeze(estimatedFromMask(m)) }),
+);
+const HARGREAVES: EtoProvenance = Object.freeze({ method: "hargreaves", estimated: Object.freeze(estimatedFromMask(7)) });
 
 /** Checks the parts of the input that do not depend on any one day. */
 export function validateAccountInput(input: FieldAccountInput): { startDay: number; n: number } {
@@ -84,6 +86,7 @@ export function validateAccountInput(input: FieldAccountInput): { startDay: numb
 
 function climateMeans(
   weather: readonly WeatherDayInput[],
+  weatherDays: Int32Array,
   plantingDay: number,
   fromDayOfSeason: number,
   toDayOfSeason: number,
@@ -93,9 +96,10 @@ function climateMeans(
   let nw = 0;
   let sr = 0;
   let nr = 0;
-  for (const w of weather) {
+  for (let k = 0; k < weather.length; k++) {
+    const w = weather[k]!;
     if (isGiven(w)) continue;
-    const i = isoDateToDayNumber(w.date, "weather.date") - plantingDay + 1;
+    const i = weatherDays[k]! - plantingDay + 1;
     if (i < fromDayOfSeason || i > toDayOfSeason) continue;
     if (w.windMs !== undefined) {
       const h = w.windHeightM ?? windHeightM;
@@ -110,10 +114,10 @@ function climateMeans(
   return { windMs: nw ? sw / nw : null, rhMinPct: nr ? sr / nr : null };
 }
 
-function kcUsedFor(input: FieldAccountInput): KcUsed {
+function kcUsedFor(input: FieldAccountInput, weatherDays: Int32Array): KcUsed {
   const pl = input.planting;
   const adj = pl.climateAdjust;
-  const base: KcUsed = { ...pl.kc, adjusted: false, midWindMs: null, midRhMinPct: null, endWindMs: null, endRhMinPct: null };
+  const base: KcUsed = { ini: pl.kc.ini, mid: pl.kc.mid, end: pl.kc.end, adjusted: false, midWindMs: null, midRhMinPct: null, endWindMs: null, endRhMinPct: null };
   if (!adj) return base;
   const explicit = typeof adj === "object" ? adj : {};
   const plantingDay = isoDateToDayNumber(pl.plantingDate);
@@ -121,14 +125,14 @@ function kcUsedFor(input: FieldAccountInput): KcUsed {
   const midFrom = s.iniDays + s.devDays + 1;
   const midTo = midFrom + s.midDays - 1;
   const windH = input.station?.windHeightM ?? 2;
-  const mid = climateMeans(input.weather, plantingDay, midFrom, midTo, windH);
-  const late = climateMeans(input.weather, plantingDay, midTo + 1, midTo + s.lateDays, windH);
+  const mid = climateMeans(input.weather, weatherDays, plantingDay, midFrom, midTo, windH);
+  const late = climateMeans(input.weather, weatherDays, plantingDay, midTo + 1, midTo + s.lateDays, windH);
   const h = pl.heightM ?? 1;
   const midWind = explicit.midWindMs ?? mid.windMs;
   const midRh = explicit.midRhMinPct ?? mid.rhMinPct;
   const endWind = explicit.endWindMs ?? late.windMs ?? midWind;
   const endRh = explicit.endRhMinPct ?? late.rhMinPct ?? midRh;
-  const out: KcUsed = { ...base, midWindMs: midWind, midRhMinPct: midRh, endWindMs: endWind, endRhMinPct: endRh };
+  const out: KcUsed = { ini: base.ini, mid: base.mid, end: base.end, adjusted: false, midWindMs: midWind, midRhMinPct: midRh, endWindMs: endWind, endRhMinPct: endRh };
   if (midWind !== null && midRh !== null) {
     out.mid = adjustKcMidForClimate(pl.kc.mid, midWind, midRh, h);
     out.adjusted = true;
@@ -140,6 +144,13 @@ function kcUsedFor(input: FieldAccountInput): KcUsed {
   return out;
 }
 
+/** Day numbers of the weather days' dates, parsed once. */
+export function weatherDayNumbers(weather: readonly WeatherDayInput[]): Int32Array {
+  const out = new Int32Array(weather.length);
+  for (let k = 0; k < weather.length; k++) out[k] = isoDateToDayNumber(weather[k]!.date, "weather.date");
+  return out;
+}
+
 /**
  * ETo by day for the account span: given values, FAO-56 daily Penman-Monteith (or Hargreaves) from raw
  * weather, and the mean of the previous `fillDays` days for a day without weather (flagged 'filled-mean').
@@ -148,44 +159,97 @@ export function etoForSpan(
   input: Pick<FieldAccountInput, "weather" | "station" | "options">,
   startDay: number,
   n: number,
+  weatherDays: Int32Array = weatherDayNumbers(input.weather),
 ): { etoMm: Float64Array; provenance: EtoProvenance[] } {
   const eto = new Float64Array(n).fill(NaN);
   const prov: EtoProvenance[] = new Array<EtoProvenance>(n).fill(FILLED);
-  const temperatureOnly = input.options?.temperatureOnly;
-  for (const w of input.weather) {
-    const d = isoDateToDayNumber(w.date, "weather.date") - startDay;
+  const options = { temperatureOnly: input.options?.temperatureOnly };
+  const scratch = emptyEtoScratch();
+  let consts: SiteConstants | null = null;
+  for (let k = 0; k < input.weather.length; k++) {
+    const w = input.weather[k]!;
+    const d = weatherDays[k]! - startDay;
     if (d < 0 || d >= n) continue;
     if (isGiven(w)) {
       eto[d] = requireNonNegative("weather.etoMm", requireFinite("weather.etoMm", w.etoMm));
       prov[d] = GIVEN;
       continue;
     }
-    if (!input.station) throw new WaterBalanceInputError("station", "is required when weather days are raw readings");
-    const r = referenceEtDaily(w as DailyWeather, input.station, { temperatureOnly });
-    eto[d] = r.etoMm;
-    prov[d] = etoProvenance(r.method, r.estimated);
+    const site = input.station;
+    if (!site) throw new WaterBalanceInputError("station", "is required when weather days are raw readings");
+    if (consts === null) consts = siteConstants(site);
+    validateDailyWeather(w);
+    computeDailyEtoInto(w, site, consts, dayOfYearOfDayNumber(weatherDays[k]!), options, scratch);
+    eto[d] = scratch.etoRawMm > 0 ? scratch.etoRawMm : 0;
+    prov[d] = scratch.method === "hargreaves" ? HARGREAVES : PM_BY_MASK[scratch.estimatedMask]!;
   }
   const fillDays = Math.max(1, Math.floor(input.options?.etoFillDays ?? 7));
   let firstKnown = -1;
-  for (let d = 0; d < n; d++) if (eto[d] === eto[d]) { firstKnown = d; break; }
+  for (let d = 0; d < n; d++) {
+    if (eto[d] === eto[d]) {
+      firstKnown = d;
+      break;
+    }
+  }
   if (firstKnown < 0) throw new WaterBalanceInputError("weather", `no weather for any day from ${dayNumberToIsoDate(startDay)}`);
   // before the first known day, borrow the mean of the first known days
-  const recent: number[] = [];
-  for (let d = firstKnown; d < n && recent.length < fillDays; d++) if (eto[d] === eto[d]) recent.push(eto[d]!);
+  let leadSum = 0;
+  let leadN = 0;
+  for (let d = firstKnown; d < n && leadN < fillDays; d++) {
+    if (eto[d] === eto[d]) {
+      leadSum += eto[d]!;
+      leadN++;
+    }
+  }
+  const window: number[] = [];
+  let sum = 0;
   for (let d = 0; d < n; d++) {
     const v = eto[d]!;
     if (v === v) {
-      if (d >= firstKnown) {
-        recent.push(v);
-        if (recent.length > fillDays) recent.shift();
-      }
-      continue;
+      window.push(v);
+      sum += v;
+      if (window.length > fillDays) sum -= window.shift()!;
+    } else {
+      eto[d] = window.length ? sum / window.length : leadSum / leadN;
     }
-    let s = 0;
-    for (const x of recent) s += x;
-    eto[d] = s / recent.length;
   }
   return { etoMm: eto, provenance: prov };
+}
+
+/** A station's ETo over a span, computed once and shared by every field the station serves. */
+export interface StationEtoSeries {
+  /** first date of the series */
+  startDate: string;
+  etoMm: Float64Array;
+  provenance: EtoProvenance[];
+}
+
+/**
+ * ETo for a station from `startDate` to `endDate` (FAO-56 eq. 6 with the chapter 3 missing-data
+ * rules, or eq. 52; gaps filled with the recent mean and flagged). Pass the result as `eto` to each
+ * field on the station so a whole-farm recompute computes each station-day once.
+ */
+export function computeStationEto(
+  weather: readonly WeatherDayInput[],
+  station: FieldAccountInput["station"],
+  startDate: string,
+  endDate: string,
+  options: FieldAccountInput["options"] = {},
+): StationEtoSeries {
+  const startDay = isoDateToDayNumber(startDate, "startDate");
+  const n = isoDateToDayNumber(endDate, "endDate") - startDay + 1;
+  if (n < 1) throw new WaterBalanceInputError("endDate", "is before startDate");
+  if (n > MAX_ACCOUNT_DAYS) throw new WaterBalanceInputError("endDate", `the span is longer than ${MAX_ACCOUNT_DAYS} days`);
+  const { etoMm, provenance } = etoForSpan({ weather, station, options }, startDay, n);
+  return { startDate, etoMm, provenance };
+}
+
+function etoFromSeries(series: StationEtoSeries, startDay: number, n: number): { etoMm: Float64Array; provenance: EtoProvenance[] } {
+  const offset = startDay - isoDateToDayNumber(series.startDate, "eto.startDate");
+  if (offset < 0 || offset + n > series.etoMm.length || series.provenance.length !== series.etoMm.length) {
+    throw new WaterBalanceInputError("eto", "the ETo series does not cover the account's span");
+  }
+  return { etoMm: series.etoMm.subarray(offset, offset + n), provenance: series.provenance.slice(offset, offset + n) };
 }
 
 /** Builds the crop and soil arrays of a season (FAO-56 eq. 62, 65, 66, 72, 76, 82). */
@@ -194,21 +258,24 @@ export function prepareCropSeason(input: FieldAccountInput): PreparedCropSeason 
   const soil = resolveSoil(input.field.soil);
   const pl = input.planting;
   const plantingDay = isoDateToDayNumber(pl.plantingDate);
-  const { etoMm, provenance } = etoForSpan(input, startDay, n);
-  const kcUsed = kcUsedFor(input);
+  let parsed: Int32Array | null = null;
+  const weatherDays = (): Int32Array => (parsed ??= weatherDayNumbers(input.weather));
+  const { etoMm, provenance } = input.eto ? etoFromSeries(input.eto, startDay, n) : etoForSpan(input, startDay, n, weatherDays());
+  const kcUsed = pl.climateAdjust ? kcUsedFor(input, weatherDays()) : kcUsedFor(input, new Int32Array(0));
   const curve = { ini: kcUsed.ini, mid: kcUsed.mid, end: kcUsed.end };
   const fallow = pl.fallowKc ?? curve.ini;
-  const kc = new Float64Array(n);
+  const cols = float64Columns(n, 4);
+  const kc = cols[0]!;
+  const rootDepthM = cols[1]!;
+  const tawMm = cols[2]!;
+  const pTable = cols[3]!.fill(pl.pTable);
   const stage: CropStage[] = new Array<CropStage>(n);
-  const rootDepthM = new Float64Array(n);
-  const tawMm = new Float64Array(n);
-  const pTable = new Float64Array(n).fill(pl.pTable);
   const dw = soil.thetaFc - soil.thetaWp;
   let dual: LoopDual | null = null;
   const dualSpec = pl.dual;
   const kcMaxArr = dualSpec ? new Float64Array(n) : null;
   const cover = dualSpec ? new Float64Array(n) : null;
-  const weatherByDay = dualSpec ? rawWeatherByDay(input.weather, startDay, n) : null;
+  const weatherByDay = dualSpec ? rawWeatherByDay(input.weather, weatherDays(), startDay, n) : null;
   const hMax = pl.heightM ?? 1;
   for (let d = 0; d < n; d++) {
     const i = startDay + d - plantingDay + 1;
@@ -245,11 +312,12 @@ export function prepareCropSeason(input: FieldAccountInput): PreparedCropSeason 
   return { n, startDay, soil, etoMm, etoProvenance: provenance, kc, stage, rootDepthM, tawMm, pTable, dual, kcUsed };
 }
 
-function rawWeatherByDay(weather: readonly WeatherDayInput[], startDay: number, n: number): (DailyWeather | undefined)[] {
+function rawWeatherByDay(weather: readonly WeatherDayInput[], weatherDays: Int32Array, startDay: number, n: number): (DailyWeather | undefined)[] {
   const out = new Array<DailyWeather | undefined>(n);
-  for (const w of weather) {
+  for (let k = 0; k < weather.length; k++) {
+    const w = weather[k]!;
     if (isGiven(w)) continue;
-    const d = isoDateToDayNumber(w.date, "weather.date") - startDay;
+    const d = weatherDays[k]! - startDay;
     if (d >= 0 && d < n) out[d] = w;
   }
   return out;

@@ -1,6 +1,6 @@
 import { requireNonNegative, requirePositive } from "./errors";
 import type { GreenAmptParams } from "./soils";
-import type { HyetographPiece } from "./storms";
+import { piecesToColumns, type HyetographColumns, type HyetographPiece } from "./storms";
 
 /**
  * Green-Ampt infiltration (Green and Ampt 1911) with ponding time under unsteady rain (Mein and
@@ -40,16 +40,25 @@ export function infiltrationCapacityMmH(cumulativeMm: number, ksatMmH: number, p
  */
 export function pondedInfiltrationMm(durationH: number, ksatMmH: number, psiDeltaThetaMm: number, startMm = 0): number {
   requireNonNegative("durationH", durationH);
-  const kdt = ksatMmH * durationH;
-  if (kdt === 0) return startMm;
-  const a = psiDeltaThetaMm;
-  if (a <= 1e-12) return startMm + kdt;
-  const logBase = Math.log(startMm + a);
-  let f = startMm + kdt + Math.sqrt(2 * a * kdt);
+  return pondedStep(durationH, ksatMmH, psiDeltaThetaMm, startMm, Infinity);
+}
+
+/**
+ * Newton's method on g(F) = F − F0 − a ln[(F + a)/(F0 + a)] − K Δt, started above the root: at the
+ * lesser of F0 + f0 Δt (the capacity at the start only falls) and F0 + K Δt + √(2 a K Δt).
+ * g is convex and increasing, so the iterates fall monotonically onto the root.
+ */
+function pondedStep(dt: number, k: number, a: number, f0: number, capacityAtStart: number): number {
+  const kdt = k * dt;
+  if (kdt === 0) return f0;
+  if (a <= 1e-12) return f0 + kdt;
+  const logBase = Math.log(f0 + a);
+  let f = f0 + kdt + Math.sqrt(2 * a * kdt);
+  const euler = f0 + capacityAtStart * dt;
+  if (euler < f) f = euler;
   for (let it = 0; it < 60; it++) {
-    const g = f - startMm - a * (Math.log(f + a) - logBase) - kdt;
-    const dg = f / (f + a);
-    const step = g / dg;
+    const g = f - f0 - a * (Math.log(f + a) - logBase) - kdt;
+    const step = (g * (f + a)) / f;
     f -= step;
     if (Math.abs(step) <= 1e-10 * (1 + f)) break;
   }
@@ -94,46 +103,64 @@ export function greenAmptStorm(
   deltaTheta: number,
   options: { ksatFactor?: number } = {},
 ): GreenAmptStormResult {
+  const h = piecesToColumns(pieces);
+  return greenAmptColumns(h, 0, h.n, params, deltaTheta, options);
+}
+
+/** {@link greenAmptStorm} on pieces `from`..`to` (exclusive) of a columnar hyetograph. */
+export function greenAmptColumns(
+  h: HyetographColumns,
+  from: number,
+  to: number,
+  params: Pick<GreenAmptParams, "suctionMm" | "ksatMmH">,
+  deltaTheta: number,
+  options: { ksatFactor?: number } = {},
+): GreenAmptStormResult {
   const k = requirePositive("ksatMmH", params.ksatMmH) * (options.ksatFactor ?? 1);
   const a = params.suctionMm * Math.max(0, deltaTheta);
+  const startMs = h.startMs;
+  const endMs = h.endMs;
+  const depthMm = h.depthMm;
   let f = 0;
   let rain = 0;
   let runoff = 0;
-  let pondedAtMs: number | null = null;
+  let pondedAtMs = -1;
   let pondedH = 0;
-  for (const p of pieces) {
-    const dt = (p.endMs - p.startMs) / 3_600_000;
-    if (p.depthMm <= 0) continue;
-    rain += p.depthMm;
+  for (let q = from; q < to; q++) {
+    const depth = depthMm[q]!;
+    if (depth <= 0) continue;
+    const t0 = startMs[q]!;
+    const dt = (endMs[q]! - t0) / 3_600_000;
+    rain += depth;
     if (dt <= 0) {
       // a zero-length catch cannot be rated for intensity; it enters the soil
-      f += p.depthMm;
+      f += depth;
       continue;
     }
-    const i = p.depthMm / dt;
-    const cap = infiltrationCapacityMmH(f, k, a);
+    const i = depth / dt;
+    const cap = f > 0 ? k * (1 + a / f) : a > 0 ? Infinity : k;
     let fNew: number;
     if (cap <= i) {
-      fNew = pondedInfiltrationMm(dt, k, a, f);
-      if (pondedAtMs === null) pondedAtMs = p.startMs;
+      fNew = pondedStep(dt, k, a, f, cap);
+      if (pondedAtMs < 0) pondedAtMs = t0;
       pondedH += dt;
     } else {
-      const fTry = f + p.depthMm;
-      if (infiltrationCapacityMmH(fTry, k, a) > i) {
+      const fTry = f + depth;
+      if (k * (1 + a / fTry) > i) {
         fNew = fTry;
       } else {
         const fp = (k * a) / (i - k);
-        const dtp = Math.max(0, (fp - f) / i);
-        fNew = pondedInfiltrationMm(dt - dtp, k, a, Math.max(f, fp));
-        if (pondedAtMs === null) pondedAtMs = p.startMs + dtp * 3_600_000;
+        const dtp = fp > f ? (fp - f) / i : 0;
+        fNew = pondedStep(dt - dtp, k, a, fp > f ? fp : f, i);
+        if (pondedAtMs < 0) pondedAtMs = t0 + dtp * 3_600_000;
         pondedH += dt - dtp;
       }
     }
     let entered = fNew - f;
-    if (entered > p.depthMm) entered = p.depthMm;
+    if (entered > depth) entered = depth;
     if (entered < 0) entered = 0;
     f += entered;
-    runoff += p.depthMm - entered;
+    runoff += depth - entered;
   }
-  return { rainMm: rain, infiltrationMm: rain - runoff, runoffMm: runoff, pondedAtMs, pondedH };
+  return { rainMm: rain, infiltrationMm: rain - runoff, runoffMm: runoff, pondedAtMs: pondedAtMs < 0 ? null : pondedAtMs, pondedH };
 }

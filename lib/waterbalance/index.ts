@@ -65,8 +65,8 @@ export type {
   DailyEtoResult,
   ReferenceEtOptions,
 } from "./reference-et";
-export { hargreavesEtoMm, resolveHumidity, resolveSolar, resolveWind } from "./missing-data";
-export type { HumiditySource, SolarSource, WindSource } from "./missing-data";
+export { hargreavesEtoMm, fillDailyInputs, emptyFilledInputs } from "./missing-data";
+export type { HumiditySource, SolarSource, WindSource, FilledInputs } from "./missing-data";
 export {
   referenceEtHourly,
   extraterrestrialRadiationPeriodMJm2,
@@ -122,23 +122,30 @@ export {
   pondedInfiltrationMm,
   pondingTimeH,
   greenAmptStorm,
+  greenAmptColumns,
 } from "./green-ampt";
 export type { GreenAmptStormResult } from "./green-ampt";
 export {
   toEpochMs,
   buildHyetograph,
+  hyetographColumns,
+  piecesToColumns,
+  columnsToPieces,
   separateStorms,
+  stormBounds,
   stormsFromRecords,
+} from "./storms";
+export type { RainRecord, HyetographPiece, HyetographColumns, Storm, HyetographOptions } from "./storms";
+export {
   accountDayOfInstant,
   accountDayOfManualReading,
   accountDayOfReadingDate,
   groupRecordsByAccountDay,
   dailyTotalsFromRecords,
-} from "./storms";
-export type { RainRecord, HyetographPiece, Storm, HyetographOptions } from "./storms";
+} from "./reading-day";
 export { rainFromGauges, distanceKm } from "./gauge-weights";
 export type { LatLon, GaugeReading, GaugeWeight, InterpolatedRain, GaugeWeightOptions } from "./gauge-weights";
-export { unitKineticEnergyMJhaMm, stormEnergy, maxDepthInWindowMm, surfaceSealing } from "./rain-energy";
+export { unitKineticEnergyMJhaMm, stormEnergy, stormEnergyColumns, maxDepthInWindowMm, surfaceSealing } from "./rain-energy";
 export type { KineticEnergyMethod, StormEnergy, SealingOptions } from "./rain-energy";
 export {
   marshallPalmerLambdaPerMm,
@@ -165,7 +172,8 @@ export {
 export type { BalanceLoopInput, BalanceLoopOutput, LoopCurveNumber, LoopDual } from "./balance-loop";
 export { runFieldAccount, computeFieldSeason, accountRows, CLOSURE_TOLERANCE_MM } from "./balance";
 export type { FieldSeasonColumns } from "./balance";
-export { etoForSpan, prepareCropSeason, MAX_ACCOUNT_DAYS } from "./field-season";
+export { etoForSpan, computeStationEto, prepareCropSeason, MAX_ACCOUNT_DAYS } from "./field-season";
+export type { StationEtoSeries, PreparedCropSeason } from "./field-season";
 export type * from "./account-types";
 
 // Outlook and farm plan

@@ -1,10 +1,11 @@
 import type { FieldAccountInput, RainProvenance, RunoffProvenance, StormRunoffRecord } from "./account-types";
+import { float64Columns, uint8Columns } from "./arrays";
 import { RUNOFF_CURVE_NUMBER, RUNOFF_NONE, RUNOFF_STORM, type LoopCurveNumber } from "./balance-loop";
 import type { CropStage } from "./crop-coefficient";
 import { isoDateToDayNumber } from "./dates";
 import { requireNonNegative, requireRange, WaterBalanceInputError } from "./errors";
-import { greenAmptStorm, moistureDeficitFromDepletion } from "./green-ampt";
-import { stormEnergy, surfaceSealing } from "./rain-energy";
+import { greenAmptColumns, moistureDeficitFromDepletion } from "./green-ampt";
+import { stormEnergyColumns, surfaceSealing } from "./rain-energy";
 import {
   antecedentFormulaSource,
   curveNumberFor,
@@ -15,9 +16,16 @@ import {
   type HydrologicSoilGroup,
 } from "./runoff";
 import type { ResolvedSoil, TextureId } from "./soils";
-import { stormsFromRecords, type Storm } from "./storms";
+import { hyetographColumns, stormBounds, type HyetographColumns } from "./storms";
 
 /** Rain, irrigation, capillary rise and soil checks by day, and the runoff of time-stamped days. */
+
+/** A time-stamped day ready for Green-Ampt: its hyetograph and storm bounds. */
+export interface StormDay {
+  hyetograph: HyetographColumns;
+  bounds: number[];
+  droppedTips: number;
+}
 
 /** The water side of a prepared season. */
 export interface PreparedWaterSeason {
@@ -34,8 +42,8 @@ export interface PreparedWaterSeason {
   irrigationBasis: Uint8Array;
   capillaryRiseMm: Float64Array;
   soilCheckMm: Float64Array;
-  /** storms of the time-stamped days */
-  stormDays: Map<number, { storms: Storm[]; droppedTips: number }>;
+  /** hyetographs of the time-stamped days, with their storms' [from, to) bounds */
+  stormDays: Map<number, StormDay>;
 }
 
 const NO_RECORD: RainProvenance = Object.freeze({ source: "no-record", gauges: Object.freeze([]) as readonly [], missing: false, recorded: false });
@@ -103,13 +111,15 @@ function curveNumberSetup(input: FieldAccountInput, soil: ResolvedSoil): { loop:
 
 /** Builds the rain, irrigation, capillary-rise and soil-check arrays for the span. */
 export function prepareWaterSeason(input: FieldAccountInput, soil: ResolvedSoil, startDay: number, n: number): PreparedWaterSeason {
-  const rainMm = new Float64Array(n);
+  const f = float64Columns(n, 5);
+  const b = uint8Columns(n, 2);
+  const rainMm = f[0]!;
   const rainProvenance: RainProvenance[] = new Array<RainProvenance>(n).fill(NO_RECORD);
-  const runoffKind = new Uint8Array(n);
+  const runoffKind = b[0]!;
   const cnSetup = curveNumberSetup(input, soil);
   const dailyKind = cnSetup.loop ? RUNOFF_CURVE_NUMBER : RUNOFF_NONE;
   runoffKind.fill(dailyKind);
-  const stormDays = new Map<number, { storms: Storm[]; droppedTips: number }>();
+  const stormDays = new Map<number, StormDay>();
   const seen = new Set<number>();
   for (const r of input.rain) {
     const d = isoDateToDayNumber(r.date, "rain.date") - startDay;
@@ -123,21 +133,21 @@ export function prepareWaterSeason(input: FieldAccountInput, soil: ResolvedSoil,
       rainMm[d] = missing ? 0 : requireNonNegative("rain.rainMm", r.rainMm as number);
       rainProvenance[d] = { source, gauges, missing, recorded: false };
     } else {
-      const { storms, droppedTips } = stormsFromRecords(r.records, input.options?.storms);
+      const { hyetograph, droppedTips } = hyetographColumns(r.records, input.options?.storms);
       let total = 0;
-      for (const s of storms) total += s.depthMm;
+      for (let k = 0; k < hyetograph.n; k++) total += hyetograph.depthMm[k]!;
       rainMm[d] = total;
       rainProvenance[d] = { source, gauges, missing: false, recorded: true };
       if (soil.greenAmpt) {
         runoffKind[d] = RUNOFF_STORM;
-        stormDays.set(d, { storms, droppedTips });
+        stormDays.set(d, { hyetograph, bounds: stormBounds(hyetograph, input.options?.storms?.dryGapH), droppedTips });
       }
     }
   }
   const eff = input.system.applicationEfficiency;
-  const irrigationGrossMm = new Float64Array(n);
-  const irrigationNetMm = new Float64Array(n);
-  const irrigationBasis = new Uint8Array(n);
+  const irrigationGrossMm = f[1]!;
+  const irrigationNetMm = f[2]!;
+  const irrigationBasis = b[1]!;
   for (const ev of input.irrigations ?? []) {
     const d = isoDateToDayNumber(ev.date, "irrigations.date") - startDay;
     if (d < 0 || d >= n) continue;
@@ -152,12 +162,12 @@ export function prepareWaterSeason(input: FieldAccountInput, soil: ResolvedSoil,
       irrigationBasis[d] = irrigationBasis[d]! | 2;
     }
   }
-  const capillaryRiseMm = new Float64Array(n);
+  const capillaryRiseMm = f[3]!;
   for (const c of input.capillaryRise ?? []) {
     const d = isoDateToDayNumber(c.date, "capillaryRise.date") - startDay;
     if (d >= 0 && d < n) capillaryRiseMm[d] = capillaryRiseMm[d]! + requireNonNegative("capillaryRise.capillaryRiseMm", c.capillaryRiseMm);
   }
-  const soilCheckMm = new Float64Array(n).fill(NaN);
+  const soilCheckMm = f[4]!.fill(NaN);
   for (const c of input.soilChecks ?? []) {
     const d = isoDateToDayNumber(c.date, "soilChecks.date") - startDay;
     if (d >= 0 && d < n) soilCheckMm[d] = requireNonNegative("soilChecks.depletionMm", c.depletionMm);
@@ -210,15 +220,20 @@ export function makeStormRunoff(
     let runoff = 0;
     let sealFormed = false;
     const records: StormRunoffRecord[] = [];
-    for (const s of day.storms) {
+    const h = day.hyetograph;
+    for (let b = 0; b < day.bounds.length; b += 2) {
+      const from = day.bounds[b]!;
+      const to = day.bounds[b + 1]!;
       const deltaTheta = moistureDeficitFromDepletion(ga, soil.thetaFc, dr, rootDepthM[d]!);
-      const r = greenAmptStorm(s.pieces, ga, deltaTheta, { ksatFactor: factor });
-      const e = stormEnergy(s.pieces, keMethod);
+      const r = greenAmptColumns(h, from, to, ga, deltaTheta, { ksatFactor: factor });
+      const e = stormEnergyColumns(h, from, to, keMethod);
       runoff += r.runoffMm;
       dr = Math.max(0, dr - r.infiltrationMm);
+      let endMs = -Infinity;
+      for (let k = from; k < to; k++) if (h.endMs[k]! > endMs) endMs = h.endMs[k]!;
       records.push({
-        startMs: s.startMs,
-        endMs: s.endMs,
+        startMs: h.startMs[from]!,
+        endMs,
         rainMm: r.rainMm,
         runoffMm: r.runoffMm,
         deltaTheta,

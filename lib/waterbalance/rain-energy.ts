@@ -1,5 +1,6 @@
+import { scratchFloat64, SCRATCH_CUMULATIVE } from "./arrays";
 import { requireNonNegative } from "./errors";
-import type { HyetographPiece } from "./storms";
+import { piecesToColumns, type HyetographColumns, type HyetographPiece } from "./storms";
 
 /** Rain kinetic energy and erosivity from the intensity record: unit energy, storm energy, I30, EI30. */
 
@@ -14,7 +15,7 @@ export type KineticEnergyMethod = "mcgregor-1995" | "brown-foster-1987" | "wisch
  * (Wischmeier and Smith 1978, metric form).
  */
 export function unitKineticEnergyMJhaMm(intensityMmH: number, method: KineticEnergyMethod = "mcgregor-1995"): number {
-  requireNonNegative("intensityMmH", intensityMmH);
+  if (!(intensityMmH >= 0)) requireNonNegative("intensityMmH", intensityMmH);
   switch (method) {
     case "mcgregor-1995":
       return 0.29 * (1 - 0.72 * Math.exp(-0.082 * intensityMmH));
@@ -30,35 +31,50 @@ export function unitKineticEnergyMJhaMm(intensityMmH: number, method: KineticEne
 
 /**
  * Greatest depth (mm) that fell in any window of `windowMin` minutes, with rain spread evenly inside
- * each piece. The best window starts or ends at a piece boundary, so only those are tried (O(n)).
+ * each piece (pieces in time order, not overlapping). The depth in a sliding window is piecewise
+ * linear in its position, so the best window starts or ends at a piece boundary; both families are
+ * swept with a forward pointer, O(n).
  */
 export function maxDepthInWindowMm(pieces: readonly HyetographPiece[], windowMin: number): number {
-  const w = windowMin * 60_000;
-  const n = pieces.length;
-  if (n === 0) return 0;
-  // cumulative depth at each piece start
-  const cumAtStart = new Float64Array(n + 1);
-  for (let k = 0; k < n; k++) {
-    cumAtStart[k + 1] = cumAtStart[k]! + pieces[k]!.depthMm;
-  }
-  const cumAt = (t: number, hint: { k: number }): number => {
-    // advance hint to the last piece starting at or before t
-    while (hint.k + 1 < n && pieces[hint.k + 1]!.startMs <= t) hint.k++;
-    while (hint.k > 0 && pieces[hint.k]!.startMs > t) hint.k--;
-    const p = pieces[hint.k]!;
-    if (t <= p.startMs) return cumAtStart[hint.k]!;
-    if (t >= p.endMs) return cumAtStart[hint.k + 1]!;
-    const dur = p.endMs - p.startMs;
-    return cumAtStart[hint.k]! + (dur > 0 ? (p.depthMm * (t - p.startMs)) / dur : p.depthMm);
-  };
+  const h = piecesToColumns(pieces);
+  const cum = cumulative(h, 0, h.n);
+  return maxWindow(h, 0, h.n, cum, windowMin * 60_000);
+}
+
+/** Running depth at piece starts: cum[j] is the depth before piece from + j (reused scratch). */
+function cumulative(h: HyetographColumns, from: number, to: number): Float64Array {
+  const cum = scratchFloat64(SCRATCH_CUMULATIVE, to - from + 1);
+  cum[0] = 0;
+  for (let k = from; k < to; k++) cum[k - from + 1] = cum[k - from]! + h.depthMm[k]!;
+  return cum;
+}
+
+function maxWindow(h: HyetographColumns, from: number, to: number, cum: Float64Array, w: number): number {
+  const n = to - from;
+  const s = h.startMs;
+  const e = h.endMs;
   let best = 0;
-  const h1 = { k: 0 };
-  const h2 = { k: 0 };
-  for (let k = 0; k < n; k++) {
-    const p = pieces[k]!;
-    // windows that start, or end, at this piece's start or end
-    for (const t0 of [p.startMs, p.endMs, p.startMs - w, p.endMs - w]) {
-      const d = cumAt(t0 + w, h2) - cumAt(t0, h1);
+  for (let pass = 0; pass < 2; pass++) {
+    // pass 0: windows starting at each boundary, C(b + w) − C(b); pass 1: ending there, C(b) − C(b − w)
+    const shift = pass === 0 ? w : -w;
+    let j = 0;
+    for (let k = 0; k < 2 * n; k++) {
+      const q = k >> 1;
+      const b = k & 1 ? e[from + q]! : s[from + q]!;
+      const cb = cum[q + (k & 1)]!;
+      const t = b + shift;
+      while (j < n && e[from + j]! <= t) j++;
+      let ct: number;
+      if (j >= n) ct = cum[n]!;
+      else {
+        const ps = s[from + j]!;
+        if (t <= ps) ct = cum[j]!;
+        else {
+          const dur = e[from + j]! - ps;
+          ct = cum[j]! + (dur > 0 ? (h.depthMm[from + j]! * (t - ps)) / dur : 0);
+        }
+      }
+      const d = pass === 0 ? ct - cb : cb - ct;
       if (d > best) best = d;
     }
   }
@@ -86,30 +102,41 @@ export interface StormEnergy {
  * erosive-storm rule).
  */
 export function stormEnergy(pieces: readonly HyetographPiece[], method: KineticEnergyMethod = "mcgregor-1995"): StormEnergy {
-  let depth = 0;
+  const h = piecesToColumns(pieces);
+  return stormEnergyColumns(h, 0, h.n, method);
+}
+
+/** {@link stormEnergy} on pieces `from`..`to` (exclusive) of a columnar hyetograph. */
+export function stormEnergyColumns(h: HyetographColumns, from: number, to: number, method: KineticEnergyMethod = "mcgregor-1995"): StormEnergy {
+  const n = to - from;
   let energy = 0;
   let peak = 0;
   let start = Infinity;
   let end = -Infinity;
-  for (const p of pieces) {
-    const dur = (p.endMs - p.startMs) / 3_600_000;
-    const i = dur > 0 ? p.depthMm / dur : 0;
-    depth += p.depthMm;
-    energy += unitKineticEnergyMJhaMm(i, method) * p.depthMm;
+  for (let k = from; k < to; k++) {
+    const depth = h.depthMm[k]!;
+    const s = h.startMs[k]!;
+    const e = h.endMs[k]!;
+    const durH = (e - s) / 3_600_000;
+    const i = durH > 0 ? depth / durH : 0;
+    energy += unitKineticEnergyMJhaMm(i, method) * depth;
     if (i > peak) peak = i;
-    if (p.startMs < start) start = p.startMs;
-    if (p.endMs > end) end = p.endMs;
+    if (s < start) start = s;
+    if (e > end) end = e;
   }
-  const i30 = 2 * maxDepthInWindowMm(pieces, 30);
-  const max15 = maxDepthInWindowMm(pieces, 15);
+  const cum = cumulative(h, from, to);
+  const depth = cum[n]!;
+  const i30 = n ? 2 * maxWindow(h, from, to, cum, 30 * 60_000) : 0;
+  // RUSLE's 15-minute rule only matters for storms under 12.7 mm
+  const erosive = depth >= 12.7 || (n > 0 && maxWindow(h, from, to, cum, 15 * 60_000) >= 6.35);
   return {
     depthMm: depth,
-    durationH: pieces.length ? (end - start) / 3_600_000 : 0,
+    durationH: n ? (end - start) / 3_600_000 : 0,
     energyMJha: energy,
     i30MmH: i30,
     ei30: energy * i30,
     peakIntensityMmH: peak,
-    erosive: depth >= 12.7 || max15 >= 6.35,
+    erosive,
   };
 }
 

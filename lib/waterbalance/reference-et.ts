@@ -7,9 +7,9 @@ import {
   saturationVapourPressureKPa,
   windAt2mMs,
 } from "./meteo";
-import { resolveHumidity, resolveSolar, resolveWind, hargreavesEtoMm } from "./missing-data";
-import type { HumiditySource, SolarSource, WindSource } from "./missing-data";
-import { clearSkySolarMJm2, daylightHours, netLongwaveMJm2, netShortwaveMJm2, raFromGeometry, solarGeometry } from "./solar";
+import { fillDailyInputs, hargreavesEtoMm } from "./missing-data";
+import type { FilledInputs, HumiditySource, SolarSource, WindSource } from "./missing-data";
+import { netLongwaveMJm2, netShortwaveMJm2 } from "./solar";
 
 /** A weather station's site: where the sun and the air pressure come from. */
 export interface StationSite {
@@ -135,6 +135,21 @@ export function penmanMonteithEtoMm(t: {
 
 /** Throws on a day that cannot exist (Tmax < Tmin, RH outside 0-100, negative wind or radiation). */
 export function validateDailyWeather(w: DailyWeather): void {
+  // the common case in one pass of plain comparisons; the checks below name what is wrong
+  if (
+    w.tMaxC >= -60 && w.tMaxC <= 60 && w.tMinC >= -70 && w.tMinC <= w.tMaxC &&
+    (w.rhMaxPct === undefined || (w.rhMaxPct >= 0 && w.rhMaxPct <= 100)) &&
+    (w.rhMinPct === undefined || (w.rhMinPct >= 0 && w.rhMinPct <= 100 && (w.rhMaxPct === undefined || w.rhMinPct <= w.rhMaxPct))) &&
+    (w.rhMeanPct === undefined || (w.rhMeanPct >= 0 && w.rhMeanPct <= 100)) &&
+    (w.tDewC === undefined || (w.tDewC >= -80 && w.tDewC <= 40)) &&
+    (w.eaKPa === undefined || (w.eaKPa >= 0 && w.eaKPa < Infinity)) &&
+    (w.windMs === undefined || (w.windMs >= 0 && w.windMs < Infinity)) &&
+    (w.solarMJm2 === undefined || (w.solarMJm2 >= 0 && w.solarMJm2 < Infinity)) &&
+    (w.sunshineHours === undefined || (w.sunshineHours >= 0 && w.sunshineHours <= 24)) &&
+    (w.soilHeatFluxMJm2 === undefined || Number.isFinite(w.soilHeatFluxMJm2))
+  ) {
+    return;
+  }
   requireRange("tMaxC", w.tMaxC, -60, 60);
   requireRange("tMinC", w.tMinC, -70, 60);
   if (w.tMaxC < w.tMinC) {
@@ -154,6 +169,135 @@ export function validateDailyWeather(w: DailyWeather): void {
   if (w.soilHeatFluxMJm2 !== undefined) requireFinite("soilHeatFluxMJm2", w.soilHeatFluxMJm2);
 }
 
+/** Site constants a season reuses: pressure, γ, Rso factor (FAO-56 eq. 7, 8, 37). */
+export interface SiteConstants {
+  pressureKPa: number;
+  gammaKPaC: number;
+  rsoFactor: number;
+}
+
+/** Pressure, γ and the clear-sky factor of a site, computed once per season. */
+export function siteConstants(site: StationSite): SiteConstants {
+  requireRange("latitudeDeg", site.latitudeDeg, -90, 90);
+  const pressureKPa = atmosphericPressureKPa(site.elevationM);
+  return { pressureKPa, gammaKPaC: psychrometricConstantKPaC(pressureKPa), rsoFactor: 0.75 + 2e-5 * site.elevationM };
+}
+
+/** Scratch record for {@link computeDailyEtoInto}: every term, the method and where inputs came from. */
+export interface DailyEtoScratch extends PenmanMonteithTerms, FilledInputs {
+  etoRawMm: number;
+  method: "penman-monteith" | "hargreaves";
+  /** bit 1 solar, 2 humidity, 4 wind estimated */
+  estimatedMask: number;
+}
+
+/** An empty scratch record. */
+export function emptyEtoScratch(): DailyEtoScratch {
+  // written out in full: V8 builds a literal with a spread and many keys as a slow dictionary object
+  return {
+    eaKPa: 0,
+    humiditySource: "none",
+    rsMJm2: 0,
+    solarSource: "none",
+    u2Ms: 0,
+    windSource: "none",
+    doy: 0,
+    tMeanC: 0,
+    pressureKPa: 0,
+    gammaKPaC: 0,
+    deltaKPaC: 0,
+    eSatTMaxKPa: 0,
+    eSatTMinKPa: 0,
+    esKPa: 0,
+    vpdKPa: 0,
+    dr: 0,
+    declinationRad: 0,
+    sunsetHourAngleRad: 0,
+    raMJm2: 0,
+    daylightHours: 0,
+    rsoMJm2: 0,
+    rnsMJm2: 0,
+    rnlMJm2: 0,
+    rnMJm2: 0,
+    gMJm2: 0,
+    etoRawMm: 0,
+    method: "penman-monteith",
+    estimatedMask: 0,
+  };
+}
+
+/**
+ * The computation behind {@link referenceEtDaily}, writing into `s` instead of allocating, for
+ * season-long runs. `doy` is the day of the year; the weather must already be validated.
+ */
+export function computeDailyEtoInto(
+  weather: DailyWeather,
+  site: StationSite,
+  consts: SiteConstants,
+  doy: number,
+  options: ReferenceEtOptions,
+  s: DailyEtoScratch,
+): DailyEtoScratch {
+  const phi = (site.latitudeDeg * Math.PI) / 180;
+  const dr = 1 + 0.033 * Math.cos(((2 * Math.PI) / 365) * doy);
+  const decl = 0.409 * Math.sin(((2 * Math.PI) / 365) * doy - 1.39);
+  const x = -Math.tan(phi) * Math.tan(decl);
+  const ws = Math.acos(x < -1 ? -1 : x > 1 ? 1 : x);
+  const raRaw = ((24 * 60) / Math.PI) * 0.082 * dr * (ws * Math.sin(phi) * Math.sin(decl) + Math.cos(phi) * Math.cos(decl) * Math.sin(ws));
+  const raMJm2 = raRaw > 0 ? raRaw : 0;
+  const nHours = (24 / Math.PI) * ws;
+  const tMeanC = (weather.tMaxC + weather.tMinC) / 2;
+  s.doy = doy;
+  s.tMeanC = tMeanC;
+  s.dr = dr;
+  s.declinationRad = decl;
+  s.sunsetHourAngleRad = ws;
+  s.raMJm2 = raMJm2;
+  s.daylightHours = nHours;
+  fillDailyInputs(weather, site, raMJm2, nHours, options.defaultWindMs ?? 2, s);
+  let mask = 0;
+  if (s.solarSource === "temperature-range") mask |= 1;
+  if (s.humiditySource === "tmin") mask |= 2;
+  if (s.windSource === "default") mask |= 4;
+  s.estimatedMask = mask;
+  if (mask === 7 && (options.temperatureOnly ?? "hargreaves") === "hargreaves") {
+    s.method = "hargreaves";
+    s.humiditySource = "none";
+    s.solarSource = "none";
+    s.windSource = "none";
+    s.etoRawMm = hargreavesEtoMm(weather.tMaxC, weather.tMinC, raMJm2);
+    return s;
+  }
+  s.method = "penman-monteith";
+  s.pressureKPa = consts.pressureKPa;
+  s.gammaKPaC = consts.gammaKPaC;
+  s.deltaKPaC = saturationSlopeKPaC(tMeanC);
+  s.eSatTMaxKPa = saturationVapourPressureKPa(weather.tMaxC);
+  s.eSatTMinKPa = saturationVapourPressureKPa(weather.tMinC);
+  s.esKPa = (s.eSatTMaxKPa + s.eSatTMinKPa) / 2;
+  s.vpdKPa = s.esKPa - s.eaKPa;
+  s.rsoMJm2 = consts.rsoFactor * raMJm2;
+  s.rnsMJm2 = netShortwaveMJm2(s.rsMJm2);
+  s.rnlMJm2 = netLongwaveMJm2(weather.tMaxC, weather.tMinC, s.eaKPa, s.rsMJm2, s.rsoMJm2);
+  s.rnMJm2 = s.rnsMJm2 - s.rnlMJm2;
+  s.gMJm2 = weather.soilHeatFluxMJm2 ?? 0;
+  s.etoRawMm = penmanMonteithEtoMm(s);
+  return s;
+}
+
+const ESTIMATED_BY_MASK: readonly EstimatedInput[][] = [0, 1, 2, 3, 4, 5, 6, 7].map((m) => {
+  const out: EstimatedInput[] = [];
+  if (m & 1) out.push("solar");
+  if (m & 2) out.push("humidity");
+  if (m & 4) out.push("wind");
+  return out;
+});
+
+/** The estimated inputs named by a scratch record's mask (a fresh array). */
+export function estimatedFromMask(mask: number): EstimatedInput[] {
+  return [...(ESTIMATED_BY_MASK[mask & 7] ?? [])];
+}
+
 /**
  * Reference ET for one day from whatever the station measured (FAO-56 chapters 3-4).
  * Penman-Monteith (eq. 6) with FAO-56's missing-data procedures: Rs from sunshine (eq. 35) or the
@@ -165,82 +309,47 @@ export function validateDailyWeather(w: DailyWeather): void {
  * @throws WaterBalanceInputError on impossible input
  */
 export function referenceEtDaily(weather: DailyWeather, site: StationSite, options: ReferenceEtOptions = {}): DailyEtoResult {
-  requireRange("latitudeDeg", site.latitudeDeg, -90, 90);
+  const consts = siteConstants(site);
   validateDailyWeather(weather);
-  const doy = dayOfYear(weather.date);
-  const g = solarGeometry(site.latitudeDeg, doy);
-  const raMJm2 = raFromGeometry(site.latitudeDeg, g);
-  const nHours = daylightHours(site.latitudeDeg, doy);
-  const tMeanC = (weather.tMaxC + weather.tMinC) / 2;
-
-  const humidity = resolveHumidity(weather, site.dewpointDepressionC ?? 0);
-  const solar = resolveSolar(weather, site, raMJm2, nHours);
-  const wind = resolveWind(weather, site, options.defaultWindMs ?? 2);
-
-  const temperatureOnly = humidity.estimated && solar.estimated && wind.estimated;
-  if (temperatureOnly && (options.temperatureOnly ?? "hargreaves") === "hargreaves") {
-    const eto = hargreavesEtoMm(weather.tMaxC, weather.tMinC, raMJm2);
+  const s = computeDailyEtoInto(weather, site, consts, dayOfYear(weather.date), options, emptyEtoScratch());
+  const estimated = estimatedFromMask(s.estimatedMask);
+  const sources = { solar: s.solarSource, humidity: s.humiditySource, wind: s.windSource };
+  const eto = s.etoRawMm;
+  if (s.method === "hargreaves") {
     return {
       method: "hargreaves",
       etoMm: Math.max(0, eto),
       etoRawMm: eto,
-      estimated: ["solar", "humidity", "wind"],
-      sources: { solar: "none", humidity: "none", wind: "none" },
-      terms: { doy, tMeanC, raMJm2, daylightHours: nHours },
+      estimated,
+      sources,
+      terms: { doy: s.doy, tMeanC: s.tMeanC, raMJm2: s.raMJm2, daylightHours: s.daylightHours },
     };
   }
-
-  const pressureKPa = atmosphericPressureKPa(site.elevationM);
-  const gammaKPaC = psychrometricConstantKPaC(pressureKPa);
-  const deltaKPaC = saturationSlopeKPaC(tMeanC);
-  const eSatTMaxKPa = saturationVapourPressureKPa(weather.tMaxC);
-  const eSatTMinKPa = saturationVapourPressureKPa(weather.tMinC);
-  const esKPa = (eSatTMaxKPa + eSatTMinKPa) / 2;
-  const eaKPa = humidity.eaKPa;
-  const rsoMJm2 = clearSkySolarMJm2(raMJm2, site.elevationM);
-  const rsMJm2 = solar.rsMJm2;
-  const rnsMJm2 = netShortwaveMJm2(rsMJm2);
-  const rnlMJm2 = netLongwaveMJm2(weather.tMaxC, weather.tMinC, eaKPa, rsMJm2, rsoMJm2);
-  const rnMJm2 = rnsMJm2 - rnlMJm2;
-  const gMJm2 = weather.soilHeatFluxMJm2 ?? 0;
-  const u2Ms = wind.u2Ms;
   const terms: PenmanMonteithTerms = {
-    doy,
-    tMeanC,
-    pressureKPa,
-    gammaKPaC,
-    deltaKPaC,
-    eSatTMaxKPa,
-    eSatTMinKPa,
-    esKPa,
-    eaKPa,
-    vpdKPa: esKPa - eaKPa,
-    dr: g.dr,
-    declinationRad: g.declinationRad,
-    sunsetHourAngleRad: g.sunsetHourAngleRad,
-    raMJm2,
-    daylightHours: nHours,
-    rsMJm2,
-    rsoMJm2,
-    rnsMJm2,
-    rnlMJm2,
-    rnMJm2,
-    gMJm2,
-    u2Ms,
+    doy: s.doy,
+    tMeanC: s.tMeanC,
+    pressureKPa: s.pressureKPa,
+    gammaKPaC: s.gammaKPaC,
+    deltaKPaC: s.deltaKPaC,
+    eSatTMaxKPa: s.eSatTMaxKPa,
+    eSatTMinKPa: s.eSatTMinKPa,
+    esKPa: s.esKPa,
+    eaKPa: s.eaKPa,
+    vpdKPa: s.vpdKPa,
+    dr: s.dr,
+    declinationRad: s.declinationRad,
+    sunsetHourAngleRad: s.sunsetHourAngleRad,
+    raMJm2: s.raMJm2,
+    daylightHours: s.daylightHours,
+    rsMJm2: s.rsMJm2,
+    rsoMJm2: s.rsoMJm2,
+    rnsMJm2: s.rnsMJm2,
+    rnlMJm2: s.rnlMJm2,
+    rnMJm2: s.rnMJm2,
+    gMJm2: s.gMJm2,
+    u2Ms: s.u2Ms,
   };
-  const eto = penmanMonteithEtoMm(terms);
-  const estimated: EstimatedInput[] = [];
-  if (solar.estimated) estimated.push("solar");
-  if (humidity.estimated) estimated.push("humidity");
-  if (wind.estimated) estimated.push("wind");
-  return {
-    method: "penman-monteith",
-    etoMm: Math.max(0, eto),
-    etoRawMm: eto,
-    estimated,
-    sources: { solar: solar.source, humidity: humidity.source, wind: wind.source },
-    terms,
-  };
+  return { method: "penman-monteith", etoMm: Math.max(0, eto), etoRawMm: eto, estimated, sources, terms };
 }
 
 /** Wind at 2 m for a reading at `heightM` (re-exported convenience; FAO-56 eq. 47). */

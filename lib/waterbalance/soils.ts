@@ -153,7 +153,14 @@ export function resolveSoil(spec: SoilSpec): ResolvedSoil {
   requireRange("soil.thetaWp", thetaWp, 0, 0.7);
   if (thetaWp >= thetaFc) throw new WaterBalanceInputError("soil.thetaWp", "must be below thetaFc");
   let greenAmpt: GreenAmptParams | null = null;
-  const ga = { ...(tex?.greenAmpt ?? {}), ...(spec.greenAmpt ?? {}) };
+  const g0 = tex?.greenAmpt;
+  const g1 = spec.greenAmpt;
+  const ga = {
+    porosity: g1?.porosity ?? g0?.porosity,
+    effectivePorosity: g1?.effectivePorosity ?? g0?.effectivePorosity,
+    suctionMm: g1?.suctionMm ?? g0?.suctionMm,
+    ksatMmH: g1?.ksatMmH ?? g0?.ksatMmH,
+  };
   if (ga.porosity !== undefined && ga.effectivePorosity !== undefined && ga.suctionMm !== undefined && ga.ksatMmH !== undefined) {
     requireRange("soil.greenAmpt.porosity", ga.porosity, 0.05, 0.9);
     requireRange("soil.greenAmpt.effectivePorosity", ga.effectivePorosity, 0.01, ga.porosity);

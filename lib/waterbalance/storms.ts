@@ -1,10 +1,10 @@
-import { tzOffset } from "@date-fns/tz";
-import { dayNumberToIsoDate, isoDateToDayNumber } from "./dates";
-import { requireNonNegative, requirePositive, requireRange, WaterBalanceInputError } from "./errors";
+import { float64Columns, scratchFloat64, SCRATCH_PIECE_DEPTH, SCRATCH_PIECE_END, SCRATCH_PIECE_START, SCRATCH_TIP_DEPTH, SCRATCH_TIP_MS } from "./arrays";
+import { requireNonNegative, requirePositive, WaterBalanceInputError } from "./errors";
 
 /**
- * Time-stamped rain: bucket tips and logger intervals into a hyetograph, storms separated by a dry
- * gap, and the reading-day rule that books rain to the farm's account days.
+ * Time-stamped rain: bucket tips and logger intervals into a hyetograph, and storms separated by a
+ * dry gap. The hyetograph is held in columns (typed arrays) so a season of tips makes no object per
+ * tip; the piece-object forms are kept for callers that want them.
  */
 
 /** One time-stamped catch: a bucket tip, or the depth a logger recorded over an interval. */
@@ -22,6 +22,14 @@ export interface HyetographPiece {
   startMs: number;
   endMs: number;
   depthMm: number;
+}
+
+/** A hyetograph in columns: piece k fell evenly from startMs[k] to endMs[k]; pieces are in time order and do not overlap. */
+export interface HyetographColumns {
+  n: number;
+  startMs: Float64Array;
+  endMs: Float64Array;
+  depthMm: Float64Array;
 }
 
 /** A storm: pieces with no dry gap as long as the separation gap between them. */
@@ -51,67 +59,163 @@ export function toEpochMs(at: string | number, field = "at"): number {
 }
 
 /**
- * Builds a hyetograph from time-stamped records. A tip's intensity comes from the time since the
- * previous tip (its bucket filled over that time), not from fixed clock windows; the first tip of a
- * burst takes the interval of the tip after it. Logger intervals spread their depth evenly.
- * @returns pieces in time order, and how many tips were dropped as bounce
+ * Builds a hyetograph in columns from time-stamped records. A tip's intensity comes from the time
+ * since the previous tip (its bucket filled over that time), not from fixed clock windows; the first
+ * tip of a burst takes the interval of the tip after it, and no tip is spread over more than
+ * `maxTipIntervalMin`. Logger intervals spread their depth evenly; overlaps are clipped.
+ * @returns the columns and how many tips were dropped as switch bounce
  */
-export function buildHyetograph(records: readonly RainRecord[], options: HyetographOptions = {}): { pieces: HyetographPiece[]; droppedTips: number } {
+export function hyetographColumns(records: readonly RainRecord[], options: HyetographOptions = {}): { hyetograph: HyetographColumns; droppedTips: number } {
   const capMs = requirePositive("maxTipIntervalMin", options.maxTipIntervalMin ?? 60) * 60_000;
   const debounceMs = requireNonNegative("debounceMs", options.debounceMs ?? 1000);
-  const tips: { ms: number; depthMm: number }[] = [];
-  const raw: HyetographPiece[] = [];
-  for (const r of records) {
-    requireNonNegative("depthMm", r.depthMm);
-    const ms = toEpochMs(r.at);
-    if (r.depthMm === 0) continue;
-    if (r.intervalMin === undefined) tips.push({ ms, depthMm: r.depthMm });
-    else raw.push({ startMs: ms - requirePositive("intervalMin", r.intervalMin) * 60_000, endMs: ms, depthMm: r.depthMm });
+  const m = records.length;
+  let tipMs = scratchFloat64(SCRATCH_TIP_MS, m);
+  let tipDepth = scratchFloat64(SCRATCH_TIP_DEPTH, m);
+  let nt = 0;
+  let sorted = true;
+  let intervals: HyetographPiece[] | null = null;
+  for (let k = 0; k < m; k++) {
+    const r = records[k]!;
+    const depth = r.depthMm;
+    if (!(depth >= 0) || depth === Infinity) requireNonNegative("depthMm", depth);
+    const at = r.at;
+    const ms = typeof at === "number" && Number.isFinite(at) ? at : toEpochMs(at);
+    if (depth === 0) continue;
+    if (r.intervalMin === undefined) {
+      if (nt > 0 && ms < tipMs[nt - 1]!) sorted = false;
+      tipMs[nt] = ms;
+      tipDepth[nt] = depth;
+      nt++;
+    } else {
+      (intervals ??= []).push({ startMs: ms - requirePositive("intervalMin", r.intervalMin) * 60_000, endMs: ms, depthMm: depth });
+    }
   }
-  tips.sort((a, b) => a.ms - b.ms);
+  if (!sorted) {
+    const order = Array.from({ length: nt }, (_, i) => i).sort((a, b) => tipMs[a]! - tipMs[b]! || a - b);
+    const ms2 = new Float64Array(nt);
+    const d2 = new Float64Array(nt);
+    for (let i = 0; i < nt; i++) {
+      ms2[i] = tipMs[order[i]!]!;
+      d2[i] = tipDepth[order[i]!]!;
+    }
+    tipMs = ms2;
+    tipDepth = d2;
+  }
+  // drop switch bounce in place
+  let kept = 0;
   let droppedTips = 0;
-  const kept: { ms: number; depthMm: number }[] = [];
-  for (const t of tips) {
-    const last = kept[kept.length - 1];
-    if (last && t.ms - last.ms < debounceMs) {
+  for (let k = 0; k < nt; k++) {
+    if (kept > 0 && tipMs[k]! - tipMs[kept - 1]! < debounceMs) {
       droppedTips++;
       continue;
     }
-    kept.push(t);
+    tipMs[kept] = tipMs[k]!;
+    tipDepth[kept] = tipDepth[k]!;
+    kept++;
   }
-  for (let k = 0; k < kept.length; k++) {
-    const t = kept[k]!;
-    const prev = kept[k - 1];
-    const next = kept[k + 1];
-    let spanMs = prev ? t.ms - prev.ms : Infinity;
-    if (spanMs > capMs) {
-      const nextSpan = next ? next.ms - t.ms : Infinity;
-      spanMs = Math.min(capMs, nextSpan);
-    }
-    raw.push({ startMs: t.ms - spanMs, endMs: t.ms, depthMm: t.depthMm });
+  if (intervals === null) {
+    const [startMs, endMs, depthMm] = float64Columns(Math.max(1, kept), 3) as [Float64Array, Float64Array, Float64Array];
+    writeTipPieces(tipMs, tipDepth, kept, capMs, startMs, endMs, depthMm, 0);
+    return { hyetograph: { n: kept, startMs, endMs, depthMm }, droppedTips };
   }
+  // logger intervals (perhaps with tips): merge as objects, then to columns
+  const tipStart = new Float64Array(kept);
+  const tipEnd = new Float64Array(kept);
+  const tipD = new Float64Array(kept);
+  writeTipPieces(tipMs, tipDepth, kept, capMs, tipStart, tipEnd, tipD, 0);
+  const raw = intervals;
+  for (let k = 0; k < kept; k++) raw.push({ startMs: tipStart[k]!, endMs: tipEnd[k]!, depthMm: tipD[k]! });
   raw.sort((a, b) => a.startMs - b.startMs || a.endMs - b.endMs);
-  const pieces: HyetographPiece[] = [];
+  const merged: HyetographPiece[] = [];
   for (const p of raw) {
-    const last = pieces[pieces.length - 1];
+    const last = merged[merged.length - 1];
     if (last && p.startMs < last.endMs) {
-      // overlapping logger intervals: keep the later part, or fold a fully covered one into its neighbour
-      if (p.endMs <= last.endMs) {
-        last.depthMm += p.depthMm;
-        continue;
-      }
-      pieces.push({ startMs: last.endMs, endMs: p.endMs, depthMm: p.depthMm });
+      // overlapping intervals: keep the later part, or fold a fully covered one into its neighbour
+      if (p.endMs <= last.endMs) last.depthMm += p.depthMm;
+      else merged.push({ startMs: last.endMs, endMs: p.endMs, depthMm: p.depthMm });
       continue;
     }
-    pieces.push({ ...p });
+    merged.push({ startMs: p.startMs, endMs: p.endMs, depthMm: p.depthMm });
   }
-  return { pieces, droppedTips };
+  return { hyetograph: piecesToColumns(merged, float64Columns(Math.max(1, merged.length), 3)), droppedTips };
+}
+
+function writeTipPieces(
+  tipMs: Float64Array,
+  tipDepth: Float64Array,
+  kept: number,
+  capMs: number,
+  startMs: Float64Array,
+  endMs: Float64Array,
+  depthMm: Float64Array,
+  at: number,
+): void {
+  for (let k = 0; k < kept; k++) {
+    const t = tipMs[k]!;
+    let spanMs = k > 0 ? t - tipMs[k - 1]! : Infinity;
+    if (spanMs > capMs) {
+      const nextSpan = k + 1 < kept ? tipMs[k + 1]! - t : Infinity;
+      spanMs = nextSpan < capMs ? nextSpan : capMs;
+    }
+    startMs[at + k] = t - spanMs;
+    endMs[at + k] = t;
+    depthMm[at + k] = tipDepth[k]!;
+  }
+}
+
+/** Pieces into columns (given arrays, or reusable scratch when `target` is left out). */
+export function piecesToColumns(pieces: readonly HyetographPiece[], target?: Float64Array[]): HyetographColumns {
+  const n = pieces.length;
+  const startMs = target?.[0] ?? scratchFloat64(SCRATCH_PIECE_START, n);
+  const endMs = target?.[1] ?? scratchFloat64(SCRATCH_PIECE_END, n);
+  const depthMm = target?.[2] ?? scratchFloat64(SCRATCH_PIECE_DEPTH, n);
+  for (let k = 0; k < n; k++) {
+    const p = pieces[k]!;
+    startMs[k] = p.startMs;
+    endMs[k] = p.endMs;
+    depthMm[k] = p.depthMm;
+  }
+  return { n, startMs, endMs, depthMm };
+}
+
+/** Columns `from`..`to` (exclusive) as piece objects. */
+export function columnsToPieces(h: HyetographColumns, from = 0, to = h.n): HyetographPiece[] {
+  const out = new Array<HyetographPiece>(to - from);
+  for (let k = from; k < to; k++) out[k - from] = { startMs: h.startMs[k]!, endMs: h.endMs[k]!, depthMm: h.depthMm[k]! };
+  return out;
 }
 
 /**
- * Splits a hyetograph into storms: a new storm starts after a rainless gap of at least `dryGapH`
- * hours (default 6, common practice for erosivity and runoff storms; configurable).
+ * Builds a hyetograph from time-stamped records, as piece objects (see {@link hyetographColumns}).
+ * @returns pieces in time order, and how many tips were dropped as bounce
  */
+export function buildHyetograph(records: readonly RainRecord[], options: HyetographOptions = {}): { pieces: HyetographPiece[]; droppedTips: number } {
+  const { hyetograph, droppedTips } = hyetographColumns(records, options);
+  return { pieces: columnsToPieces(hyetograph), droppedTips };
+}
+
+/**
+ * Storm boundaries in a columnar hyetograph: a new storm starts after a rainless gap of at least
+ * `dryGapH` hours (default 6, common practice for runoff and erosivity storms; configurable).
+ * @returns [from, to) index pairs, flattened: [from0, to0, from1, to1, …]
+ */
+export function stormBounds(h: HyetographColumns, dryGapH = 6): number[] {
+  const gapMs = requirePositive("dryGapH", dryGapH) * 3_600_000;
+  const out: number[] = [];
+  let from = 0;
+  let end = -Infinity;
+  for (let k = 0; k < h.n; k++) {
+    if (k > 0 && h.startMs[k]! - end >= gapMs) {
+      out.push(from, k);
+      from = k;
+    }
+    if (h.endMs[k]! > end) end = h.endMs[k]!;
+  }
+  if (h.n > 0) out.push(from, h.n);
+  return out;
+}
+
+/** Splits piece objects into storms at dry gaps of at least `dryGapH` hours (default 6). */
 export function separateStorms(pieces: readonly HyetographPiece[], options: { dryGapH?: number } = {}): Storm[] {
   const gapMs = requirePositive("dryGapH", options.dryGapH ?? 6) * 3_600_000;
   const storms: Storm[] = [];
@@ -132,70 +236,4 @@ export function separateStorms(pieces: readonly HyetographPiece[], options: { dr
 export function stormsFromRecords(records: readonly RainRecord[], options: HyetographOptions & { dryGapH?: number } = {}): { storms: Storm[]; droppedTips: number } {
   const { pieces, droppedTips } = buildHyetograph(records, options);
   return { storms: separateStorms(pieces, options), droppedTips };
-}
-
-function localMs(utcMs: number, timeZone: string): number {
-  const off = tzOffset(timeZone, new Date(utcMs));
-  if (!Number.isFinite(off)) throw new WaterBalanceInputError("timeZone", `unknown time zone "${timeZone}"`);
-  return utcMs + off * 60_000;
-}
-
-/**
- * The account day of rain that ended at instant `atMs`: the farm's day runs from its boundary hour
- * (e.g. 09:00 local) to the next, and is named by the date it starts on, so rain up to and including
- * 09:00 on the 30th belongs to the 29th (the reading-day rule of manual gauges, applied to records).
- * @param timeZone the farm's IANA time zone, e.g. 'Australia/Brisbane'
- * @param boundaryHour local hour the day ends at, 0-23 (may be fractional: 8.5 for 08:30)
- */
-export function accountDayOfInstant(atMs: number, timeZone: string, boundaryHour: number): string {
-  requireRange("boundaryHour", boundaryHour, 0, 24);
-  const shifted = localMs(atMs, timeZone) - boundaryHour * 3_600_000;
-  // end-inclusive: an instant exactly at the boundary closes the day before
-  return dayNumberToIsoDate(Math.ceil(shifted / 86_400_000) - 1);
-}
-
-/**
- * The account day of a manual gauge reading taken at instant `readAt`: the day that ends at the
- * boundary nearest the reading, so a 09:00 (or 08:40, or 09:30) reading on the 30th is booked to the
- * 29th. Farms read once a day at a fixed hour (common practice, no source).
- */
-export function accountDayOfManualReading(readAt: string | number, timeZone: string, boundaryHour: number): string {
-  requireRange("boundaryHour", boundaryHour, 0, 24);
-  const shifted = localMs(toEpochMs(readAt, "readAt"), timeZone) - boundaryHour * 3_600_000;
-  return dayNumberToIsoDate(Math.round(shifted / 86_400_000) - 1);
-}
-
-/** The account day of a reading recorded only by its local date: the day before (reading-day rule). */
-export function accountDayOfReadingDate(readingDate: string): string {
-  return dayNumberToIsoDate(isoDateToDayNumber(readingDate, "readingDate") - 1);
-}
-
-/**
- * Groups time-stamped records by account day (see {@link accountDayOfInstant}), in date order, with
- * each day's total. A logger interval is booked to the day its end falls in.
- */
-export function groupRecordsByAccountDay(
-  records: readonly RainRecord[],
-  timeZone: string,
-  boundaryHour: number,
-): { date: string; rainMm: number; records: RainRecord[] }[] {
-  const byDay = new Map<string, { date: string; rainMm: number; records: RainRecord[] }>();
-  for (const r of records) {
-    const date = accountDayOfInstant(toEpochMs(r.at), timeZone, boundaryHour);
-    let g = byDay.get(date);
-    if (!g) {
-      g = { date, rainMm: 0, records: [] };
-      byDay.set(date, g);
-    }
-    g.records.push(r);
-    g.rainMm += r.depthMm;
-  }
-  return [...byDay.values()].sort((a, b) => (a.date < b.date ? -1 : a.date > b.date ? 1 : 0));
-}
-
-/** Daily totals (mm) by account day from time-stamped records, using the same boundary as manual readings. */
-export function dailyTotalsFromRecords(records: readonly RainRecord[], timeZone: string, boundaryHour: number): Map<string, number> {
-  const out = new Map<string, number>();
-  for (const g of groupRecordsByAccountDay(records, timeZone, boundaryHour)) out.set(g.date, g.rainMm);
-  return out;
 }
