@@ -8,6 +8,9 @@ import * as importsRoute from "@/app/api/v1/farms/[farmId]/imports/route";
 import * as importRoute from "@/app/api/v1/farms/[farmId]/imports/[importId]/route";
 import { queue } from "@/lib/jobs/queue";
 import { toCelsius, toMetresPerSecond, toMillimetres, toSolarMJm2 } from "@/lib/imports/units";
+import { readCsv } from "@/lib/imports/csv";
+import { weatherOptionsSchema } from "@/lib/imports/options";
+import { parseWeather } from "@/lib/imports/weather";
 import { call } from "../helpers/api";
 import { createFarm, createFarmTeam, type FarmTeam } from "../helpers/fixtures";
 import { fixture, upload } from "../fixtures/imports/upload";
@@ -257,6 +260,43 @@ describe("hourly weather files", () => {
     expect(day.solar_mj_m2).toBeCloseTo(25.92, 10);
     expect(day.rain_mm).toBeCloseTo(8.8, 10);
     expect(await db("weather_days").where({ station_id: stationId, date: "2026-11-21" })).toHaveLength(0);
+  });
+});
+
+describe("local days when clocks change", () => {
+  // Sydney moves to daylight time at 02:00 on Sunday 4 October 2026 (first Sunday of October, from
+  // memory): that local day has 23 hours, so 23 hourly rows make it whole.
+  function hours(fromUtcMs: number, count: number, stamp: (ms: number) => string): string {
+    const rows = ["time,temp"];
+    for (let i = 1; i <= count; i++) rows.push(`${stamp(fromUtcMs + i * 3_600_000)},${10 + i}`);
+    return rows.join("\n");
+  }
+  const utc = (ms: number) => new Date(ms).toISOString().slice(0, 19) + "Z";
+
+  it("takes a 23-hour local day as whole", async () => {
+    // local midnight starting 4 October is 3 October 14:00 UTC (AEST, UTC+10)
+    const csv = hours(Date.UTC(2026, 9, 3, 14), 23, utc);
+    const options = weatherOptionsSchema.parse({
+      stationId,
+      interval: "hourly",
+      columns: { date: "time", temp: "temp" },
+    });
+    const parsed = await parseWeather(readCsv(csv), options, "Australia/Sydney");
+    expect(parsed.warnings).toEqual([]);
+    expect(parsed.days.map((d) => [d.date, d.tmaxC, d.tminC])).toEqual([["2026-10-04", 33, 11]]);
+  });
+
+  it("reads stamps that mark the start of each hour when told so", async () => {
+    // 24 rows stamped 00:00 … 23:00 UTC with the farm in UTC: one whole day, the 5th
+    const csv = hours(Date.UTC(2026, 9, 4, 23), 24, utc);
+    const options = weatherOptionsSchema.parse({
+      stationId,
+      interval: "hourly",
+      stampMarks: "start",
+      columns: { date: "time", temp: "temp" },
+    });
+    const parsed = await parseWeather(readCsv(csv), options, "Etc/UTC");
+    expect(parsed.days.map((d) => d.date)).toEqual(["2026-10-05"]);
   });
 });
 
