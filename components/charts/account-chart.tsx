@@ -76,7 +76,8 @@ export function AccountChart({ past, future, today, units }: { past: readonly Ac
             <YAxis yAxisId="depl" reversed tick={{ fontSize: 12, fill: "#17261f" }} width={44} />
             <YAxis yAxisId="flux" orientation="right" tick={{ fontSize: 12, fill: "#17261f" }} width={36} />
             <Tooltip labelFormatter={(d) => formatLocalDate(String(d), "long")} formatter={(value) => (Array.isArray(value) ? `${value[0]}–${value[1]} ${unit}` : `${value} ${unit}`)} />
-            <Legend wrapperStyle={{ fontSize: 12 }} />
+            {/* Legend text in ink: the series' own light fills would be unreadable as text. */}
+            <Legend wrapperStyle={{ fontSize: 12 }} formatter={(value) => <span style={{ color: "#17261f" }}>{value}</span>} />
             <Area yAxisId="depl" dataKey="rawBand" name="RAW (readily available)" fill="#d5eaef" stroke="none" isAnimationActive={false} />
             <Area yAxisId="depl" dataKey="tawBand" name="RAW to TAW (crop short of water)" fill="#f3dfcc" stroke="none" isAnimationActive={false} />
             <Bar yAxisId="flux" dataKey="rain" name="Rain" fill="#7fb8c7" isAnimationActive={false} />

@@ -10,6 +10,8 @@ const ETO_METHODS: Record<string, string> = {
   "filled-mean": "filled from the mean of nearby days",
 };
 
+const dayCount = (n: number) => (n === 1 ? "1 day" : `${n} days`);
+
 const ESTIMATED: Record<string, string> = { solar: "solar radiation", humidity: "humidity", wind: "wind speed", eto: "ETo itself" };
 
 function countBy<T>(items: readonly T[], key: (t: T) => string | undefined): [string, number][] {
@@ -43,10 +45,10 @@ export function WhyPanel({ days, outlook, gauges, units }: { days: readonly Acco
         <div>
           <dt className="font-bold">Reference ET (ETo)</dt>
           <dd>
-            {etoMethods.length ? etoMethods.map(([m, n]) => `${ETO_METHODS[m] ?? m}: ${n} days`).join("; ") : "no days shown"}.
+            {etoMethods.length ? etoMethods.map(([m, n]) => `${ETO_METHODS[m] ?? m}: ${dayCount(n)}`).join("; ") : "no days shown"}.
             {estimated.length > 0 && (
               <span className="ml-1">
-                <Estimated /> inputs estimated (FAO-56 ch. 3): {estimated.map(([e, n]) => `${ESTIMATED[e] ?? e} on ${n} days`).join(", ")}.
+                <Estimated /> inputs estimated (FAO-56 ch. 3): {estimated.map(([e, n]) => `${ESTIMATED[e] ?? e} on ${dayCount(n)}`).join(", ")}.
               </span>
             )}
           </dd>
@@ -66,7 +68,7 @@ export function WhyPanel({ days, outlook, gauges, units }: { days: readonly Acco
           <dt className="font-bold">Runoff</dt>
           <dd>
             {runoff.length
-              ? runoff.map(([m, n]) => `${m === "green-ampt" ? "Green-Ampt from the storm's intensity" : m === "curve-number" ? "NRCS curve number" : "none"}: ${n} rain days`).join("; ")
+              ? runoff.map(([m, n]) => `${m === "green-ampt" ? "Green-Ampt from the storm's intensity" : m === "curve-number" ? "NRCS curve number" : "none"}: ${n === 1 ? "1 rain day" : `${n} rain days`}`).join("; ")
               : "No rain days shown."}
             {cn && cn.method === "curve-number" && ` Last curve number ${cn.curveNumber} (${cn.condition} antecedent condition).`}
           </dd>

@@ -12,14 +12,14 @@ export function BandChip({ band }: { band: MapBand }) {
 
 export function BandLegend({ className = "" }: { className?: string }) {
   return (
-    <div className={`rounded-xl bg-white/95 p-2 text-xs shadow ring-1 ring-river-100 lg:p-3 lg:text-sm ${className}`}>
+    <div className={`rounded-xl bg-white/95 p-2 text-xs shadow ring-1 ring-river-100 ${className}`}>
       <p className="mb-1 font-bold">Status bands, wet to dry</p>
-      <ul className="grid grid-cols-2 gap-x-3 gap-y-0.5 lg:flex lg:flex-col lg:gap-1">
+      <ul className="grid grid-cols-2 gap-x-3 gap-y-0.5">
         {(["soaked", "comfortable", "drawing", "due", "parched", "unknown"] as const).map((band) => (
-          <li key={band} className="flex items-center gap-2">
+          <li key={band} className="flex items-center gap-2" title={BANDS[band].meaning}>
             <span aria-hidden="true" className="inline-block h-3.5 w-5 shrink-0 rounded ring-1 ring-ink/30" style={{ backgroundColor: BANDS[band].fill }} />
             <span>
-              <span className="font-bold">{BANDS[band].label}</span> <span className="hidden text-ink/75 lg:inline">{BANDS[band].meaning}</span>
+              <span className="font-bold">{BANDS[band].label}</span> <span className="sr-only">: {BANDS[band].meaning}</span>
             </span>
           </li>
         ))}

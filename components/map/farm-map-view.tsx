@@ -126,7 +126,7 @@ export function FarmMapView({ farmId, today, readingsFrom, tileUrl, initialUnits
           ) : (
             <p className="p-4 text-ink/75">Loading the farm map…</p>
           )}
-          <BandLegend className="absolute bottom-3 left-3 z-[1000] max-w-[16rem]" />
+          <BandLegend className="absolute right-3 bottom-3 z-[1000]" />
         </section>
       </div>
     </div>

@@ -42,8 +42,7 @@ test("a farm manager goes from the map to a field's sheet and on to the plan, an
   // Imperial units for this person, then back to metric.
   await page.getByRole("button", { name: "Imperial" }).click();
   await expect(page.getByText(/Depletion [\d.]+ in of TAW/).first()).toBeVisible();
-  const me = await page.request.get("/api/v1/me");
-  expect((await me.json()).user.unitSystem).toBe("imperial");
+  await expect.poll(async () => (await (await page.request.get("/api/v1/me")).json()).user.unitSystem).toBe("imperial");
   await page.getByRole("button", { name: "Metric" }).click();
   await expect(page.getByText(/Depletion \d+ mm of TAW/).first()).toBeVisible();
 
