@@ -132,7 +132,7 @@ export function FarmPlan({ farmId, farmName, initialUnits }: { farmId: string; f
                   {r.startDate ? `${formatLocalDate(r.startDate)} to ${formatLocalDate(r.endDate ?? r.startDate)}` : "no capacity in these days"} · gross{" "}
                   {formatDepth(r.grossDepthMm, units, 1)} · {formatVolume(r.volumeM3, units)}
                   {r.system ? ` · ${r.system}` : ""}
-                  {r.lateDays > 0 && <span className="font-bold text-clay-700"> · {r.lateDays} days late</span>}
+                  {r.lateDays > 0 && <span className="font-bold text-clay-700"> · {r.lateDays === 1 ? "1 day" : `${r.lateDays} days`} late</span>}
                   {r.unplacedM3 > 0 && <span className="font-bold text-clay-700"> · {formatVolume(r.unplacedM3, units)} not placed</span>}
                 </p>
               </li>

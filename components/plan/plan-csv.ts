@@ -10,7 +10,7 @@ export interface PlanRow {
   endDate: string | null;
   grossDepthMm: number;
   volumeM3: number;
-  /** hours at the system's flow, when it has one */
+  /** hours to apply the volume placed in the plan's days at the system's flow, when it has one */
   durationH: number | null;
   lateDays: number;
   unplacedM3: number;
@@ -38,7 +38,7 @@ export function planRows(
         endDate: i.endDate,
         grossDepthMm: i.grossDepthMm,
         volumeM3: i.volumeM3,
-        durationH: flow ? i.volumeM3 / flow : null,
+        durationH: flow ? (i.volumeM3 - i.unplacedM3) / flow : null,
         lateDays: i.lateDays,
         unplacedM3: i.unplacedM3,
       };

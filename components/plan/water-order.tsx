@@ -1,7 +1,10 @@
 import { formatFlow, formatHours, formatLocalDate, formatVolume, type UnitSystem } from "@/lib/units";
 import type { PlanRow } from "./plan-csv";
 
-/** The water order for the supplier: per field, the flow, the start day and how long it runs. Prints on its own. */
+/**
+ * The water order for the supplier: per field, the flow, the start day and how long it runs. Only the
+ * volume that fits the plan's days is ordered; the rest waits for the next plan. Prints on its own.
+ */
 export function WaterOrder({ farmName, startDate, rows, units }: { farmName: string; startDate: string; rows: readonly PlanRow[]; units: UnitSystem }) {
   const placed = rows.filter((r) => r.startDate !== null);
   return (
@@ -33,7 +36,7 @@ export function WaterOrder({ farmName, startDate, rows, units }: { farmName: str
                   <td className="px-2 py-1.5">{formatFlow(r.flowM3H, units)}</td>
                   <td className="px-2 py-1.5">{formatLocalDate(r.startDate!)}</td>
                   <td className="px-2 py-1.5">{r.durationH !== null ? formatHours(r.durationH) : "at the system's pace"}</td>
-                  <td className="px-2 py-1.5">{formatVolume(r.volumeM3, units)}</td>
+                  <td className="px-2 py-1.5">{formatVolume(r.volumeM3 - r.unplacedM3, units)}</td>
                 </tr>
               ))}
             </tbody>
@@ -42,7 +45,7 @@ export function WaterOrder({ farmName, startDate, rows, units }: { farmName: str
                 <th scope="row" colSpan={5} className="px-2 py-1.5 text-right">
                   Total
                 </th>
-                <td className="px-2 py-1.5 font-bold">{formatVolume(placed.reduce((s, r) => s + r.volumeM3, 0), units)}</td>
+                <td className="px-2 py-1.5 font-bold">{formatVolume(placed.reduce((s, r) => s + r.volumeM3 - r.unplacedM3, 0), units)}</td>
               </tr>
             </tfoot>
           </table>
