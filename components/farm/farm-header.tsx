@@ -5,7 +5,10 @@ import { can, ROLE_LABELS, type Role } from "@/lib/auth/roles";
 
 export function FarmHeader({ farmId, farmName, role, userName }: { farmId: string; farmName: string; role: Role; userName: string }) {
   const links = [
-    { href: `/farms/${farmId}`, label: "Fields", show: true },
+    { href: `/farms/${farmId}`, label: "Map", show: true },
+    { href: `/farms/${farmId}/plan`, label: "Plan", show: true },
+    { href: `/farms/${farmId}/log`, label: "Log", show: can(role, "log") },
+    { href: `/farms/${farmId}/setup`, label: "Set-up", show: can(role, "editSetup") },
     { href: `/farms/${farmId}/members`, label: "People", show: can(role, "manageMembers") },
   ].filter((l) => l.show);
   return (
