@@ -1,4 +1,5 @@
 import Link from "next/link";
+import { AlertBell } from "@/components/alerts/alert-bell";
 import { SignOutButton } from "@/components/auth/sign-out-button";
 import { Logo } from "@/components/ui/logo";
 import { can, ROLE_LABELS, type Role } from "@/lib/auth/roles";
@@ -23,6 +24,7 @@ export function FarmHeader({ farmId, farmName, role, userName }: { farmId: strin
             {userName} · {ROLE_LABELS[role]}
           </p>
         </div>
+        <AlertBell farmId={farmId} />
         <SignOutButton />
         <nav aria-label="Farm" className="flex w-full gap-1 overflow-x-auto">
           {links.map((l) => (
