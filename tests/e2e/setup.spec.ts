@@ -3,7 +3,7 @@ import { expect, test, type Page } from "@playwright/test";
 import { DEMO, openKestrelBend } from "./helpers";
 
 // Compiling the set-up page with Leaflet on first request can take a while on a busy machine.
-test.setTimeout(300_000);
+test.setTimeout(600_000);
 
 async function openSetup(page: Page, farmId: string): Promise<void> {
   await page.goto(`/farms/${farmId}/setup`);

@@ -6,7 +6,7 @@ import { DEMO, openKestrelBend } from "./helpers";
 const GAUGE = "River gauge";
 const FIELD = "River Flat 1";
 // Compiling the app on first request and the recompute worker can each take a while on a busy machine.
-test.setTimeout(300_000);
+test.setTimeout(600_000);
 
 interface Reading {
   id: string;
