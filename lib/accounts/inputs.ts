@@ -46,6 +46,7 @@ export interface FarmInputContext {
   locatedGauges: { id: string; latitude: number; longitude: number; recording: boolean }[];
   plantingsByField: Map<string, AccountPlanting[]>;
   systems: Map<string, AccountSystem>;
+  gaugeDayCache: Map<string, GaugeDayReadings>;
   /** climate means of a planting under a station, worked out once per farm run */
   climateCache: (stationId: string, planting: AccountPlanting, compute: () => ClimateAdjustSpec) => ClimateAdjustSpec;
 }
@@ -145,6 +146,7 @@ export function buildFarmContext(setup: FarmSetup, obs: FarmObservations): FarmI
     locatedGauges,
     plantingsByField,
     systems: new Map(setup.systems.map((s) => [s.id, s])),
+    gaugeDayCache: new Map(),
     climateCache: (stationId, planting, compute) => {
       const key = `${stationId}|${planting.plantingDate}|${planting.stageIniDays}|${planting.stageDevDays}|${planting.stageMidDays}|${planting.stageLateDays}`;
       let hit = climate.get(key);
@@ -172,6 +174,33 @@ export function nearestStationId(ctx: FarmInputContext, field: AccountField, wit
     }
   }
   return best.id;
+}
+
+/** The located gauges' readings of one date, worked out once per farm run and shared by its fields. */
+interface GaugeDayReadings {
+  /** '1' for a gauge with a reading, '0' without, in locatedGauges order */
+  key: string;
+  values: (number | null)[];
+  anyFlagged: boolean;
+}
+
+function gaugeDay(ctx: FarmInputContext, date: string): GaugeDayReadings {
+  let day = ctx.gaugeDayCache.get(date);
+  if (day) return day;
+  let key = "";
+  let anyFlagged = false;
+  const values: (number | null)[] = [];
+  for (const g of ctx.locatedGauges) {
+    const d = ctx.gaugeDays.get(g.id)?.get(date);
+    // A recording gauge that logged no tip on a day caught no rain; a manual gauge not read is missing.
+    const mm = d ? (Number.isNaN(d.rainMm) ? null : d.rainMm) : g.recording ? 0 : null;
+    if (d?.flagged) anyFlagged = true;
+    values.push(mm);
+    key += mm === null ? "0" : "1";
+  }
+  day = { key, values, anyFlagged };
+  ctx.gaugeDayCache.set(date, day);
+  return day;
 }
 
 /** Where one day's rain came from, for the provenance (dry days included, which the engine is not told of). */
@@ -229,17 +258,10 @@ export function fieldRain(
       sources.push(NO_RAIN_RECORD);
       continue;
     }
-    let key = "";
-    let anyFlagged = false;
-    for (let k = 0; k < readings.length; k++) {
-      const g = ctx.locatedGauges[k]!;
-      const d = ctx.gaugeDays.get(g.id)?.get(date);
-      // A recording gauge that logged no tip on a day caught no rain; a manual gauge not read is missing.
-      const mm = d ? (Number.isNaN(d.rainMm) ? null : d.rainMm) : g.recording ? 0 : null;
-      if (d?.flagged) anyFlagged = true;
-      readings[k]!.rainMm = mm;
-      key += mm === null ? "0" : "1";
-    }
+    const day = gaugeDay(ctx, date);
+    const key = day.key;
+    const anyFlagged = day.anyFlagged;
+    for (let k = 0; k < readings.length; k++) readings[k]!.rainMm = day.values[k]!;
     if (!key.includes("1")) {
       sources.push(NO_RAIN_RECORD);
       continue;
