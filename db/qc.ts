@@ -182,15 +182,15 @@ async function flagColumns(
 
 /**
  * Stores what the rules found between two dates: new flags open, flags still found stay as decided,
- * open flags no longer found (the value was corrected) go away; then each row's flagged / flag_reason
- * columns follow its flags (flagged while any flag is open or overridden).
+ * open flags no longer found (the value was corrected) go away; then the flagged / flag_reason columns
+ * of every row with a flag, or that just lost one, follow its flags (flagged while any flag is open or
+ * overridden). Rows quality control has never flagged keep what a person or logger set on them.
  */
 export async function syncFlags(
   farmId: string,
   fromDate: string,
   toDate: string,
   candidates: readonly FlagCandidate[],
-  inRange: Record<FlagEntity, readonly string[]>,
 ): Promise<{ opened: number; closed: number; rowsChanged: number }> {
   return db.transaction(async (trx) => {
     const key = (f: { entity: string; entityId: string; rule: string }) =>
@@ -220,16 +220,14 @@ export async function syncFlags(
     let opened = 0;
     const list = [...wanted.values()];
     for (let i = 0; i < list.length; i += 500) {
-      const rows = list
-        .slice(i, i + 500)
-        .map((c) => ({
-          farm_id: farmId,
-          entity: c.entity,
-          entity_id: c.entityId,
-          date: c.date,
-          rule: c.rule,
-          message: c.message,
-        }));
+      const rows = list.slice(i, i + 500).map((c) => ({
+        farm_id: farmId,
+        entity: c.entity,
+        entity_id: c.entityId,
+        date: c.date,
+        rule: c.rule,
+        message: c.message,
+      }));
       const inserted = (await trx("qc_flags")
         .insert(rows)
         .onConflict(["entity", "entity_id", "rule"])
@@ -237,9 +235,16 @@ export async function syncFlags(
         .returning("id")) as { id: string }[];
       opened += inserted.length;
     }
+    const touched: Record<FlagEntity, Set<string>> = {
+      rain_reading: new Set(),
+      rain_record: new Set(),
+      weather_day: new Set(),
+    };
+    for (const f of existing) touched[f.entity].add(f.entity_id);
+    for (const c of candidates) touched[c.entity].add(c.entityId);
     let rowsChanged = 0;
     for (const entity of Object.keys(TABLES) as FlagEntity[])
-      rowsChanged += await flagColumns(trx, entity, inRange[entity]);
+      rowsChanged += await flagColumns(trx, entity, [...touched[entity]]);
     return { opened, closed: stale.length, rowsChanged };
   });
 }

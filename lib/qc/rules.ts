@@ -33,8 +33,11 @@ export const QC_LIMITS = {
   windMs: 15,
   /** measured solar may exceed Rso (FAO-56 eq. 37) by sensor tolerance; a few per cent more is a fault */
   solarOverClearSky: 1.05,
-  /** shortest time between two real tips of a bucket; closer is switch bounce (REFERENCES facts of practice) */
-  minTipGapS: 1,
+  /**
+   * shortest time between two real tips of a bucket; closer is switch bounce (REFERENCES facts of
+   * practice). Even 200 mm/h fills a 0.2 mm bucket only every 3.6 s.
+   */
+  minTipGapS: 2,
   /** more rain than this in one minute from a tipping bucket is a burst: wind, knocks or maintenance */
   burstWindowS: 60,
   burstMm: 6,

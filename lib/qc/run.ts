@@ -67,7 +67,6 @@ export async function runFarmQc(farmId: string, fromDate: string, toDate: string
     });
   }
 
-  const recordIdsInRange: string[] = [];
   for (const g of gauges) {
     const own = records.filter((r) => r.gauge_id === g.id);
     if (own.length === 0) continue;
@@ -82,7 +81,6 @@ export async function runFarmQc(farmId: string, fromDate: string, toDate: string
     for (const d of days) {
       const rows = d.records.flatMap((r) => byAt.get(Number(r.at)) ?? []);
       const ids = rows.map((r) => String(r.id));
-      recordIdsInRange.push(...ids);
       // A gauge with a manual reading that day is compared through the reading, not twice.
       if (!readings.some((x) => x.gauge_id === g.id && x.rain_date === d.date)) {
         gaugeDays.push({
@@ -109,10 +107,6 @@ export async function runFarmQc(farmId: string, fromDate: string, toDate: string
   }
   candidates.push(...neighbourFlags(gaugeDays));
 
-  const stored = await syncFlags(farmId, fromDate, toDate, candidates, {
-    weather_day: weather.map((w) => w.id),
-    rain_reading: readings.map((r) => r.id),
-    rain_record: recordIdsInRange,
-  });
+  const stored = await syncFlags(farmId, fromDate, toDate, candidates);
   return { ...stored, found: candidates.length };
 }

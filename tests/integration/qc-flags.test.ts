@@ -100,6 +100,24 @@ describe("running quality control", () => {
     });
   });
 
+  it("leaves alone a flag set on a row by someone else", async () => {
+    const [row] = await db("rain_readings")
+      .insert({
+        gauge_id: ids.East,
+        read_at: "2026-11-11T22:00:00Z",
+        rain_date: "2026-11-11",
+        depth_mm: 3,
+        flagged: true,
+        flag_reason: "bird bath",
+      })
+      .returning("id");
+    await runFarmQc(team.farmId, "2026-11-11", "2026-11-11");
+    expect(await db("rain_readings").where({ id: row.id }).first()).toMatchObject({
+      flagged: true,
+      flag_reason: "bird bath",
+    });
+  });
+
   it("raises nothing twice when run again", async () => {
     const result = await runFarmQc(team.farmId, "2026-11-01", "2026-11-30");
     expect(result).toMatchObject({ opened: 0, closed: 0, rowsChanged: 0 });

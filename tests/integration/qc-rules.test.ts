@@ -132,10 +132,17 @@ describe("tipping-bucket tips", () => {
   });
 
   it("flags a burst: more than 6 mm within a minute from a 0.2 mm bucket", () => {
-    const burst = Array.from({ length: 35 }, (_, i) => tip(`t${i}`, i * 1.5)); // 7 mm in 51 s
+    // a tip every 2 s (no double tips) puts 31 tips, 6.2 mm, into the minute from the first
+    const burst = Array.from({ length: 40 }, (_, i) => tip(`t${i}`, i * 2));
     const flags = tipFlags(burst);
     expect(new Set(flags.map((f) => f.rule))).toEqual(new Set(["tip_burst"]));
-    expect(flags).toHaveLength(35);
+    expect(flags).toHaveLength(40);
+  });
+
+  it("flags the seed's switch bounce: a second tip 1 s after the first", () => {
+    expect(tipFlags([tip("a", 0), tip("b", 1)]).map((f) => [f.entityId, f.rule])).toEqual([
+      ["b", "double_tip"],
+    ]);
   });
 
   it("leaves steady rain alone: a tip every 30 s is 24 mm/h", () => {
