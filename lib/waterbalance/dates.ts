@@ -52,7 +52,8 @@ export function isoDateToDayNumber(isoDate: string, field = "date"): number {
 
 const FORMAT_CACHE_BASE = 0; // 1970-01-01
 const FORMAT_CACHE_SIZE = 60_000; // to about 2134
-const formatCache: (string | undefined)[] = [];
+// filled on first use, packed (not sparse) so lookups stay fast
+let formatCache: (string | null)[] | null = null;
 
 function pad2(n: number): string {
   return n < 10 ? `0${n}` : `${n}`;
@@ -61,9 +62,11 @@ function pad2(n: number): string {
 /** ISO local date of a day number. */
 export function dayNumberToIsoDate(dayNumber: number): string {
   const slot = dayNumber - FORMAT_CACHE_BASE;
-  if (slot >= 0 && slot < FORMAT_CACHE_SIZE) {
+  const inCache = slot >= 0 && slot < FORMAT_CACHE_SIZE && Number.isInteger(slot);
+  if (inCache) {
+    formatCache ??= new Array<string | null>(FORMAT_CACHE_SIZE).fill(null);
     const hit = formatCache[slot];
-    if (hit !== undefined) return hit;
+    if (hit) return hit;
   }
   const z = dayNumber + 719468;
   const era = Math.floor(z / 146097);
@@ -76,7 +79,7 @@ export function dayNumberToIsoDate(dayNumber: number): string {
   const y = yoe + era * 400 + (m <= 2 ? 1 : 0);
   const ys = y >= 0 && y <= 9999 ? String(y).padStart(4, "0") : String(y);
   const s = `${ys}-${pad2(m)}-${pad2(d)}`;
-  if (slot >= 0 && slot < FORMAT_CACHE_SIZE) formatCache[slot] = s;
+  if (inCache && formatCache) formatCache[slot] = s;
   return s;
 }
 

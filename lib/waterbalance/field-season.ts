@@ -222,6 +222,9 @@ export interface StationEtoSeries {
   startDate: string;
   etoMm: Float64Array;
   provenance: EtoProvenance[];
+  /** the weather array the series was computed from, and its dates as day numbers (reused by fields that pass the same array) */
+  weather?: readonly WeatherDayInput[];
+  weatherDays?: Int32Array;
 }
 
 /**
@@ -240,8 +243,9 @@ export function computeStationEto(
   const n = isoDateToDayNumber(endDate, "endDate") - startDay + 1;
   if (n < 1) throw new WaterBalanceInputError("endDate", "is before startDate");
   if (n > MAX_ACCOUNT_DAYS) throw new WaterBalanceInputError("endDate", `the span is longer than ${MAX_ACCOUNT_DAYS} days`);
-  const { etoMm, provenance } = etoForSpan({ weather, station, options }, startDay, n);
-  return { startDate, etoMm, provenance };
+  const weatherDays = weatherDayNumbers(weather);
+  const { etoMm, provenance } = etoForSpan({ weather, station, options }, startDay, n, weatherDays);
+  return { startDate, etoMm, provenance, weather, weatherDays };
 }
 
 function etoFromSeries(series: StationEtoSeries, startDay: number, n: number): { etoMm: Float64Array; provenance: EtoProvenance[] } {
@@ -259,7 +263,8 @@ export function prepareCropSeason(input: FieldAccountInput): PreparedCropSeason 
   const pl = input.planting;
   const plantingDay = isoDateToDayNumber(pl.plantingDate);
   let parsed: Int32Array | null = null;
-  const weatherDays = (): Int32Array => (parsed ??= weatherDayNumbers(input.weather));
+  const shared = input.eto?.weather === input.weather && input.eto.weatherDays?.length === input.weather.length ? input.eto.weatherDays : undefined;
+  const weatherDays = (): Int32Array => (parsed ??= shared ?? weatherDayNumbers(input.weather));
   const { etoMm, provenance } = input.eto ? etoFromSeries(input.eto, startDay, n) : etoForSpan(input, startDay, n, weatherDays());
   const kcUsed = pl.climateAdjust ? kcUsedFor(input, weatherDays()) : kcUsedFor(input, new Int32Array(0));
   const curve = { ini: kcUsed.ini, mid: kcUsed.mid, end: kcUsed.end };
