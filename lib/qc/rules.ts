@@ -29,6 +29,8 @@ export const QC_LIMITS = {
   /** humidity sensors rarely read below a few per cent; a day that never passes 15 % is a dry sensor */
   rhMinPct: 3,
   rhMaxPct: 15,
+  /** a day whose humidity never fell below this, with no rain, is a stuck or wet sensor */
+  rhStuckPct: 99,
   /** a daily mean wind above this at 2 m is a storm day or a faulty anemometer */
   windMs: 15,
   /** measured solar may exceed Rso (FAO-56 eq. 37) by sensor tolerance; a few per cent more is a fault */
@@ -87,6 +89,12 @@ export function weatherDayFlags(d: WeatherDayQc): FlagCandidate[] {
     flag(
       "humidity_range",
       `humidity ${d.rhMinPct ?? "–"} to ${d.rhMaxPct ?? "–"} % is below what the air near a farm reaches`,
+    );
+  }
+  if (d.rhMinPct !== null && d.rhMinPct >= L.rhStuckPct && (d.rainMm === null || d.rainMm < 1)) {
+    flag(
+      "humidity_stuck",
+      `humidity stayed at ${d.rhMinPct} % or more all day without rain: a stuck or wet sensor`,
     );
   }
   if (d.windMs !== null && d.windMs > L.windMs)

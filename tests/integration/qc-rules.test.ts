@@ -39,6 +39,8 @@ describe("weather day ranges (common practice, no source)", () => {
     expect(rules(day({ rhMinPct: 1 }))).toEqual(["humidity_range"]);
     expect(rules(day({ rhMaxPct: 12, rhMinPct: 5 }))).toEqual(["humidity_range"]);
     expect(rules(day({ windMs: 18 }))).toEqual(["wind_range"]);
+    expect(rules(day({ rhMaxPct: 100, rhMinPct: 100 }))).toEqual(["humidity_stuck"]);
+    expect(rules(day({ rhMaxPct: 100, rhMinPct: 100, rainMm: 25 }))).toEqual([]); // a wet day may stay saturated
     expect(weatherDayFlags(day({ windMs: 18 }))[0]).toMatchObject({
       entity: "weather_day",
       entityId: "w1",
