@@ -98,16 +98,18 @@ export function LeafletMap({
             {f.label}
           </Tooltip>
         );
-        const style = { color: "#17261f", weight: 1.5, fillColor: band.fill, fillOpacity: 0.85, className: `rb-field rb-band-${f.band}` };
+        const style = { color: "#17261f", weight: 1.5, fillColor: band.fill, fillOpacity: 0.85 };
+        // Leaflet sets a path's class only when it is created, so it goes in as a prop, not in pathOptions.
+        const className = `rb-field rb-band-${f.band}`;
         if (f.boundary) {
           return (
-            <Polygon key={f.id} positions={positionsOf(f.boundary)} pathOptions={style} eventHandlers={handlers}>
+            <Polygon key={`${f.id}-${f.band}`} positions={positionsOf(f.boundary)} className={className} pathOptions={style} eventHandlers={handlers}>
               {tip}
             </Polygon>
           );
         }
         return f.centroid ? (
-          <CircleMarker key={f.id} center={f.centroid} radius={12} pathOptions={style} eventHandlers={handlers}>
+          <CircleMarker key={`${f.id}-${f.band}`} center={f.centroid} radius={12} className={className} pathOptions={style} eventHandlers={handlers}>
             {tip}
           </CircleMarker>
         ) : null;
