@@ -1,4 +1,10 @@
-import type { AntecedentCondition, AntecedentFormula, AntecedentThresholds, HydrologicSoilGroup, RunoffCover } from "./runoff";
+import type {
+  AntecedentCondition,
+  AntecedentFormula,
+  AntecedentThresholds,
+  HydrologicSoilGroup,
+  RunoffCover,
+} from "./runoff";
 import type { CoefficientCurve, CropStage, StageLengths } from "./crop-coefficient";
 import type { DailyWeather, EstimatedInput, StationSite } from "./reference-et";
 import type { GaugeWeight } from "./gauge-weights";
@@ -192,8 +198,20 @@ export interface StormRunoffRecord {
 /** How a day's runoff was worked out. */
 export type RunoffProvenance =
   | { method: "none" }
-  | { method: "curve-number"; condition: AntecedentCondition; curveNumber: number; iaRatio: number; source: string }
-  | { method: "green-ampt"; storms: readonly StormRunoffRecord[]; sealed: boolean; sealFormed: boolean; droppedTips: number };
+  | {
+      method: "curve-number";
+      condition: AntecedentCondition;
+      curveNumber: number;
+      iaRatio: number;
+      source: string;
+    }
+  | {
+      method: "green-ampt";
+      storms: readonly StormRunoffRecord[];
+      sealed: boolean;
+      sealFormed: boolean;
+      droppedTips: number;
+    };
 
 /** Where a day's rain came from. */
 export interface RainProvenance {

@@ -121,7 +121,8 @@ export function createBalanceLoopOutput(nDays: number): BalanceLoopOutput {
  */
 export function balanceLoop(input: BalanceLoopInput, out: BalanceLoopOutput): number {
   const n = input.nDays;
-  const { etoMm, kc, tawMm, pTable, rainMm, irrigationNetMm, capillaryRiseMm, soilCheckMm, runoffKind } = input;
+  const { etoMm, kc, tawMm, pTable, rainMm, irrigationNetMm, capillaryRiseMm, soilCheckMm, runoffKind } =
+    input;
   const cn = input.curveNumber;
   const storm = input.stormRunoff;
   const dual = input.dual;

@@ -1,5 +1,10 @@
 import type { AccountDay, FieldAccountInput, FieldAccountResult, RunoffProvenance } from "./account-types";
-import { balanceLoop, createBalanceLoopOutput, type BalanceLoopInput, type BalanceLoopOutput } from "./balance-loop";
+import {
+  balanceLoop,
+  createBalanceLoopOutput,
+  type BalanceLoopInput,
+  type BalanceLoopOutput,
+} from "./balance-loop";
 import { dayNumberToIsoDate } from "./dates";
 import { prepareCropSeason, type PreparedCropSeason } from "./field-season";
 import { makeStormRunoff, prepareWaterSeason, type PreparedWaterSeason } from "./rain-days";
@@ -51,7 +56,14 @@ export function computeFieldSeason(input: FieldAccountInput): FieldSeasonColumns
   };
   const loop = createBalanceLoopOutput(crop.n);
   const finalDepletionMm = balanceLoop(loopInput, loop);
-  return { crop, water, loop, runoffProvenance, triggerMad: input.planting.triggerMad ?? null, finalDepletionMm };
+  return {
+    crop,
+    water,
+    loop,
+    runoffProvenance,
+    triggerMad: input.planting.triggerMad ?? null,
+    finalDepletionMm,
+  };
 }
 
 /**
@@ -147,7 +159,12 @@ export function accountRows(cols: FieldSeasonColumns): AccountDay[] {
         runoff,
         irrigation: IRRIGATION_BASIS[water.irrigationBasis[d]!]!,
       },
-      closure: { storedChangeMm: stored, netFlowMm: flow, errorMm: err, closes: Math.abs(err) <= CLOSURE_TOLERANCE_MM },
+      closure: {
+        storedChangeMm: stored,
+        netFlowMm: flow,
+        errorMm: err,
+        closes: Math.abs(err) <= CLOSURE_TOLERANCE_MM,
+      },
     };
   }
   return rows;
@@ -156,7 +173,8 @@ export function accountRows(cols: FieldSeasonColumns): AccountDay[] {
 function curveNumberUsed(water: PreparedWaterSeason, condition: AntecedentCondition): number {
   const cn = water.curveNumber;
   if (!cn) return water.curveNumberAverage ?? 0;
-  const s = condition === "dry" ? cn.retentionDryMm : condition === "wet" ? cn.retentionWetMm : cn.retentionAverageMm;
+  const s =
+    condition === "dry" ? cn.retentionDryMm : condition === "wet" ? cn.retentionWetMm : cn.retentionAverageMm;
   // report the λ = 0.2 curve number the retention came from
   const s02 = cn.lambda === 0.05 ? 25.4 * Math.pow(s / 25.4 / 1.33, 1 / 1.15) : s;
   return Math.round((25400 / (s02 + 254)) * 10) / 10;

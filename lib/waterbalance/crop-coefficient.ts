@@ -24,9 +24,11 @@ export type CropStage = "before" | "initial" | "development" | "mid" | "late" | 
 export function validateStages(stages: StageLengths): void {
   for (const k of ["iniDays", "devDays", "midDays", "lateDays"] as const) {
     requireNonNegative(`stages.${k}`, stages[k]);
-    if (!Number.isInteger(stages[k])) throw new WaterBalanceInputError(`stages.${k}`, "must be a whole number of days");
+    if (!Number.isInteger(stages[k]))
+      throw new WaterBalanceInputError(`stages.${k}`, "must be a whole number of days");
   }
-  if (seasonLengthDays(stages) < 1) throw new WaterBalanceInputError("stages", "the season must last at least one day");
+  if (seasonLengthDays(stages) < 1)
+    throw new WaterBalanceInputError("stages", "the season must last at least one day");
 }
 
 /** Total season length, days. */
@@ -51,7 +53,12 @@ export function cropStageForDay(dayOfSeason: number, s: StageLengths): CropStage
  * Kc,i = Kc,prev + [(i − ΣL,prev)/L,stage] (Kc,next − Kc,prev). Works for Kcb (chapter 7) too.
  * Outside the season it returns `fallow` (default: Kc ini).
  */
-export function kcForDay(dayOfSeason: number, curve: CoefficientCurve, stages: StageLengths, fallow = curve.ini): number {
+export function kcForDay(
+  dayOfSeason: number,
+  curve: CoefficientCurve,
+  stages: StageLengths,
+  fallow = curve.ini,
+): number {
   const a = stages.iniDays;
   const b = a + stages.devDays;
   const c = b + stages.midDays;
@@ -80,7 +87,12 @@ export function climateTerm(windMs: number, rhMinPct: number, heightM: number): 
  * @param rhMinPct mean daily RHmin over the mid-season stage, %
  * @param heightM mean crop height during mid-season, m
  */
-export function adjustKcMidForClimate(kcMidTable: number, windMs: number, rhMinPct: number, heightM: number): number {
+export function adjustKcMidForClimate(
+  kcMidTable: number,
+  windMs: number,
+  rhMinPct: number,
+  heightM: number,
+): number {
   return kcMidTable + climateTerm(windMs, rhMinPct, heightM);
 }
 
@@ -88,7 +100,12 @@ export function adjustKcMidForClimate(kcMidTable: number, windMs: number, rhMinP
  * Kc end adjusted for climate, FAO-56 eq. 65: same correction as eq. 62 with late-season means,
  * applied only when Kc end(Tab) ≥ 0.45 (FAO-56: no adjustment below that).
  */
-export function adjustKcEndForClimate(kcEndTable: number, windMs: number, rhMinPct: number, heightM: number): number {
+export function adjustKcEndForClimate(
+  kcEndTable: number,
+  windMs: number,
+  rhMinPct: number,
+  heightM: number,
+): number {
   if (kcEndTable < 0.45) return kcEndTable;
   return kcEndTable + climateTerm(windMs, rhMinPct, heightM);
 }
@@ -98,7 +115,12 @@ export function adjustKcEndForClimate(kcEndTable: number, windMs: number, rhMinP
  * the start of mid-season and held there (FAO-56 ch. 8; linear growth is common practice, no source).
  * Before planting the root zone is Zr min.
  */
-export function rootDepthForDayM(dayOfSeason: number, rootDepthMinM: number, rootDepthMaxM: number, stages: StageLengths): number {
+export function rootDepthForDayM(
+  dayOfSeason: number,
+  rootDepthMinM: number,
+  rootDepthMaxM: number,
+  stages: StageLengths,
+): number {
   const full = stages.iniDays + stages.devDays;
   if (dayOfSeason <= 1) return rootDepthMinM;
   if (full <= 1 || dayOfSeason >= full) return rootDepthMaxM;

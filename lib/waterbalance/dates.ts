@@ -30,7 +30,12 @@ function digit(s: string, i: number): number {
 
 /** Day number (days since 1970-01-01) of an ISO local date; throws on a malformed or impossible date. */
 export function isoDateToDayNumber(isoDate: string, field = "date"): number {
-  if (typeof isoDate === "string" && isoDate.length === 10 && isoDate.charCodeAt(4) === 45 && isoDate.charCodeAt(7) === 45) {
+  if (
+    typeof isoDate === "string" &&
+    isoDate.length === 10 &&
+    isoDate.charCodeAt(4) === 45 &&
+    isoDate.charCodeAt(7) === 45
+  ) {
     const d0 = digit(isoDate, 0);
     const d1 = digit(isoDate, 1);
     const d2 = digit(isoDate, 2);
@@ -43,7 +48,8 @@ export function isoDateToDayNumber(isoDate: string, field = "date"): number {
       const y = d0 * 1000 + d1 * 100 + d2 * 10 + d3;
       const m = m0 * 10 + m1;
       const d = a0 * 10 + a1;
-      if (m >= 1 && m <= 12 && d >= 1 && d <= (m === 2 && isLeap(y) ? 29 : MONTH_DAYS[m - 1]!)) return daysFromCivil(y, m, d);
+      if (m >= 1 && m <= 12 && d >= 1 && d <= (m === 2 && isLeap(y) ? 29 : MONTH_DAYS[m - 1]!))
+        return daysFromCivil(y, m, d);
       throw new WaterBalanceInputError(field, `is not a calendar date ("${isoDate}")`);
     }
   }
@@ -71,7 +77,9 @@ export function dayNumberToIsoDate(dayNumber: number): string {
   const z = dayNumber + 719468;
   const era = Math.floor(z / 146097);
   const doe = z - era * 146097;
-  const yoe = Math.floor((doe - Math.floor(doe / 1460) + Math.floor(doe / 36524) - Math.floor(doe / 146096)) / 365);
+  const yoe = Math.floor(
+    (doe - Math.floor(doe / 1460) + Math.floor(doe / 36524) - Math.floor(doe / 146096)) / 365,
+  );
   const doy = doe - (365 * yoe + Math.floor(yoe / 4) - Math.floor(yoe / 100));
   const mp = Math.floor((5 * doy + 2) / 153);
   const d = doy - Math.floor((153 * mp + 2) / 5) + 1;

@@ -26,7 +26,11 @@ export function marshallPalmerLambdaPerMm(rainMmH: number): number {
 }
 
 /** Number density N(D) (m⁻³ mm⁻¹) of drops of diameter `diameterMm`: N0 exp(−Λ D) (Marshall and Palmer 1948); 0 beyond the truncation. */
-export function marshallPalmerDensity(diameterMm: number, rainMmH: number, maxDiameterMm = MAX_RAINDROP_DIAMETER_MM): number {
+export function marshallPalmerDensity(
+  diameterMm: number,
+  rainMmH: number,
+  maxDiameterMm = MAX_RAINDROP_DIAMETER_MM,
+): number {
   requireNonNegative("diameterMm", diameterMm);
   if (diameterMm > maxDiameterMm) return 0;
   return MARSHALL_PALMER_N0 * Math.exp(-marshallPalmerLambdaPerMm(rainMmH) * diameterMm);
@@ -102,8 +106,16 @@ export interface DropSizeSummary {
  * Integrates the Marshall-Palmer distribution for rain rate `rainMmH`, truncated at
  * `maxDiameterMm` (default 10 mm, see {@link MAX_RAINDROP_DIAMETER_MM}), with Simpson's rule.
  */
-export function marshallPalmerSummary(rainMmH: number, options: { maxDiameterMm?: number; steps?: number } = {}): DropSizeSummary {
-  const dMax = requireRange("maxDiameterMm", options.maxDiameterMm ?? MAX_RAINDROP_DIAMETER_MM, 0.1, MAX_RAINDROP_DIAMETER_MM);
+export function marshallPalmerSummary(
+  rainMmH: number,
+  options: { maxDiameterMm?: number; steps?: number } = {},
+): DropSizeSummary {
+  const dMax = requireRange(
+    "maxDiameterMm",
+    options.maxDiameterMm ?? MAX_RAINDROP_DIAMETER_MM,
+    0.1,
+    MAX_RAINDROP_DIAMETER_MM,
+  );
   const n = 2 * Math.ceil((options.steps ?? 2000) / 2);
   const lam = marshallPalmerLambdaPerMm(rainMmH);
   const h = dMax / n;

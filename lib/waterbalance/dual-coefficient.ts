@@ -48,7 +48,12 @@ export function evaporationReductionKr(deMm: number, tewMm: number, rewMm: numbe
  * Effective ground cover fc, FAO-56 eq. 76: ((Kcb − Kc min)/(Kc max − Kc min))^(1 + 0.5 h), limited to 0-0.99.
  * @param kcMin Kc of dry bare soil (≈ 0.15 annual crops)
  */
-export function canopyCoverFraction(kcb: number, kcMinValue: number, kcMaxValue: number, heightM: number): number {
+export function canopyCoverFraction(
+  kcb: number,
+  kcMinValue: number,
+  kcMaxValue: number,
+  heightM: number,
+): number {
   if (kcMaxValue <= kcMinValue) return 0;
   const x = (kcb - kcMinValue) / (kcMaxValue - kcMinValue);
   if (x <= 0) return 0;

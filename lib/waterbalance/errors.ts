@@ -15,7 +15,8 @@ export class WaterBalanceInputError extends Error {
 
 /** Throws unless `value` is a finite number. */
 export function requireFinite(field: string, value: number): number {
-  if (!Number.isFinite(value)) throw new WaterBalanceInputError(field, `must be a finite number (got ${value})`);
+  if (!Number.isFinite(value))
+    throw new WaterBalanceInputError(field, `must be a finite number (got ${value})`);
   return value;
 }
 

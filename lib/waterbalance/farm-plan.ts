@@ -27,7 +27,12 @@ export interface PlanField {
 }
 
 /** Builds a {@link PlanField} from a field's outlook. */
-export function planFieldFromOutlook(fieldId: string, areaHa: number, outlook: OutlookResult, capacityGroupIds: readonly string[]): PlanField {
+export function planFieldFromOutlook(
+  fieldId: string,
+  areaHa: number,
+  outlook: OutlookResult,
+  capacityGroupIds: readonly string[],
+): PlanField {
   const day = outlook.triggerDate ? outlook.days.find((d) => d.date === outlook.triggerDate) : undefined;
   return {
     fieldId,
@@ -87,7 +92,11 @@ export interface FarmPlanResult {
 function groupCapacityM3(g: CapacityGroup): number {
   if (g.m3PerDay !== undefined) return requireNonNegative(`capacities.${g.id}.m3PerDay`, g.m3PerDay);
   if (g.mmPerDay !== undefined && g.areaHa !== undefined) {
-    return requireNonNegative(`capacities.${g.id}.mmPerDay`, g.mmPerDay) * requirePositive(`capacities.${g.id}.areaHa`, g.areaHa) * 10;
+    return (
+      requireNonNegative(`capacities.${g.id}.mmPerDay`, g.mmPerDay) *
+      requirePositive(`capacities.${g.id}.areaHa`, g.areaHa) *
+      10
+    );
   }
   throw new WaterBalanceInputError(`capacities.${g.id}`, "give m3PerDay, or mmPerDay with areaHa");
 }
@@ -108,12 +117,31 @@ export function planFarm(input: FarmPlanInput): FarmPlanResult {
   const notDue = input.fields.filter((f) => f.dueDate === null).map((f) => f.fieldId);
   const jobs = due
     .map((f) => {
-      for (const id of f.capacityGroupIds) if (!caps.has(id)) throw new WaterBalanceInputError("capacityGroupIds", `unknown group "${id}" for field ${f.fieldId}`);
+      for (const id of f.capacityGroupIds)
+        if (!caps.has(id))
+          throw new WaterBalanceInputError(
+            "capacityGroupIds",
+            `unknown group "${id}" for field ${f.fieldId}`,
+          );
       const dueDay = isoDateToDayNumber(f.dueDate as string, "dueDate");
-      const volume = requireNonNegative("grossDepthMm", f.grossDepthMm) * requirePositive("areaHa", f.areaHa) * 10;
-      return { f, dueDay, volume, remaining: volume, start: -1, end: -1, allocations: [] as { date: string; volumeM3: number }[] };
+      const volume =
+        requireNonNegative("grossDepthMm", f.grossDepthMm) * requirePositive("areaHa", f.areaHa) * 10;
+      return {
+        f,
+        dueDay,
+        volume,
+        remaining: volume,
+        start: -1,
+        end: -1,
+        allocations: [] as { date: string; volumeM3: number }[],
+      };
     })
-    .sort((a, b) => a.dueDay - b.dueDay || (b.f.depletionFraction ?? 0) - (a.f.depletionFraction ?? 0) || (a.f.fieldId < b.f.fieldId ? -1 : 1));
+    .sort(
+      (a, b) =>
+        a.dueDay - b.dueDay ||
+        (b.f.depletionFraction ?? 0) - (a.f.depletionFraction ?? 0) ||
+        (a.f.fieldId < b.f.fieldId ? -1 : 1),
+    );
   const shortfallDays: ShortfallDay[] = [];
   const groupUse: FarmPlanResult["groupUse"] = [];
   for (let t = 0; t < n; t++) {
@@ -130,11 +158,18 @@ export function planFarm(input: FarmPlanInput): FarmPlanResult {
       j.end = day;
       j.allocations.push({ date: dayNumberToIsoDate(day), volumeM3: alloc });
     }
-    for (const [id, cap] of caps) groupUse.push({ groupId: id, date: dayNumberToIsoDate(day), usedM3: cap - left.get(id)!, capacityM3: cap });
+    for (const [id, cap] of caps)
+      groupUse.push({
+        groupId: id,
+        date: dayNumberToIsoDate(day),
+        usedM3: cap - left.get(id)!,
+        capacityM3: cap,
+      });
     const late = jobs.filter((j) => j.remaining > 1e-6 && j.dueDay <= day);
     if (late.length) {
       const saturated = new Set<string>();
-      for (const j of late) for (const id of j.f.capacityGroupIds) if (left.get(id)! <= 1e-6) saturated.add(id);
+      for (const j of late)
+        for (const id of j.f.capacityGroupIds) if (left.get(id)! <= 1e-6) saturated.add(id);
       shortfallDays.push({
         date: dayNumberToIsoDate(day),
         backlogM3: late.reduce((s, j) => s + j.remaining, 0),
@@ -151,7 +186,12 @@ export function planFarm(input: FarmPlanInput): FarmPlanResult {
     volumeM3: j.volume,
     startDate: j.start >= 0 ? dayNumberToIsoDate(j.start) : null,
     endDate: j.end >= 0 ? dayNumberToIsoDate(j.end) : null,
-    lateDays: j.volume <= 1e-9 ? 0 : j.end >= 0 && j.remaining <= 1e-6 ? Math.max(0, j.end - j.dueDay) : Math.max(0, startDay + n - 1 - j.dueDay),
+    lateDays:
+      j.volume <= 1e-9
+        ? 0
+        : j.end >= 0 && j.remaining <= 1e-6
+          ? Math.max(0, j.end - j.dueDay)
+          : Math.max(0, startDay + n - 1 - j.dueDay),
     unplacedM3: j.remaining > 1e-6 ? j.remaining : 0,
     allocations: j.allocations,
   }));

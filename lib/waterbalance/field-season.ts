@@ -13,7 +13,13 @@ import {
 } from "./crop-coefficient";
 import { dayNumberToIsoDate, dayOfYearOfDayNumber, isoDateToDayNumber } from "./dates";
 import { canopyCoverFraction, kcMax } from "./dual-coefficient";
-import { requireFinite, requireNonNegative, requirePositive, requireRange, WaterBalanceInputError } from "./errors";
+import {
+  requireFinite,
+  requireNonNegative,
+  requirePositive,
+  requireRange,
+  WaterBalanceInputError,
+} from "./errors";
 import { windAt2mMs } from "./meteo";
 import {
   computeDailyEtoInto,
@@ -53,11 +59,17 @@ function isGiven(w: WeatherDayInput): w is { date: string; etoMm: number } {
 }
 
 const GIVEN: EtoProvenance = Object.freeze({ method: "given", estimated: Object.freeze([]) as readonly [] });
-const FILLED: EtoProvenance = Object.freeze({ method: "filled-mean", estimated: Object.freeze(["eto"] as const) });
+const FILLED: EtoProvenance = Object.freeze({
+  method: "filled-mean",
+  estimated: Object.freeze(["eto"] as const),
+});
 const PM_BY_MASK: readonly EtoProvenance[] = [0, 1, 2, 3, 4, 5, 6, 7].map((m) =>
   Object.freeze({ method: "penman-monteith" as const, estimated: Object.freeze(estimatedFromMask(m)) }),
 );
-const HARGREAVES: EtoProvenance = Object.freeze({ method: "hargreaves", estimated: Object.freeze(estimatedFromMask(7)) });
+const HARGREAVES: EtoProvenance = Object.freeze({
+  method: "hargreaves",
+  estimated: Object.freeze(estimatedFromMask(7)),
+});
 
 /** Checks the parts of the input that do not depend on any one day. */
 export function validateAccountInput(input: FieldAccountInput): { startDay: number; n: number } {
@@ -65,11 +77,13 @@ export function validateAccountInput(input: FieldAccountInput): { startDay: numb
   const endDay = isoDateToDayNumber(input.endDate, "endDate");
   if (endDay < startDay) throw new WaterBalanceInputError("endDate", "is before startDate");
   const n = endDay - startDay + 1;
-  if (n > MAX_ACCOUNT_DAYS) throw new WaterBalanceInputError("endDate", `the span is longer than ${MAX_ACCOUNT_DAYS} days`);
+  if (n > MAX_ACCOUNT_DAYS)
+    throw new WaterBalanceInputError("endDate", `the span is longer than ${MAX_ACCOUNT_DAYS} days`);
   requireNonNegative("initialDepletionMm", input.initialDepletionMm);
   requirePositive("field.areaHa", input.field.areaHa);
   requireRange("system.applicationEfficiency", input.system.applicationEfficiency, 0.01, 1);
-  if (input.system.wettedFraction !== undefined) requireRange("system.wettedFraction", input.system.wettedFraction, 0.01, 1);
+  if (input.system.wettedFraction !== undefined)
+    requireRange("system.wettedFraction", input.system.wettedFraction, 0.01, 1);
   const pl = input.planting;
   isoDateToDayNumber(pl.plantingDate, "planting.plantingDate");
   validateCurve("planting.kc", pl.kc);
@@ -117,7 +131,16 @@ function climateMeans(
 function kcUsedFor(input: FieldAccountInput, weatherDays: Int32Array): KcUsed {
   const pl = input.planting;
   const adj = pl.climateAdjust;
-  const base: KcUsed = { ini: pl.kc.ini, mid: pl.kc.mid, end: pl.kc.end, adjusted: false, midWindMs: null, midRhMinPct: null, endWindMs: null, endRhMinPct: null };
+  const base: KcUsed = {
+    ini: pl.kc.ini,
+    mid: pl.kc.mid,
+    end: pl.kc.end,
+    adjusted: false,
+    midWindMs: null,
+    midRhMinPct: null,
+    endWindMs: null,
+    endRhMinPct: null,
+  };
   if (!adj) return base;
   const explicit = typeof adj === "object" ? adj : {};
   const plantingDay = isoDateToDayNumber(pl.plantingDate);
@@ -132,7 +155,16 @@ function kcUsedFor(input: FieldAccountInput, weatherDays: Int32Array): KcUsed {
   const midRh = explicit.midRhMinPct ?? mid.rhMinPct;
   const endWind = explicit.endWindMs ?? late.windMs ?? midWind;
   const endRh = explicit.endRhMinPct ?? late.rhMinPct ?? midRh;
-  const out: KcUsed = { ini: base.ini, mid: base.mid, end: base.end, adjusted: false, midWindMs: midWind, midRhMinPct: midRh, endWindMs: endWind, endRhMinPct: endRh };
+  const out: KcUsed = {
+    ini: base.ini,
+    mid: base.mid,
+    end: base.end,
+    adjusted: false,
+    midWindMs: midWind,
+    midRhMinPct: midRh,
+    endWindMs: endWind,
+    endRhMinPct: endRh,
+  };
   if (midWind !== null && midRh !== null) {
     out.mid = adjustKcMidForClimate(pl.kc.mid, midWind, midRh, h);
     out.adjusted = true;
@@ -191,7 +223,11 @@ export function etoForSpan(
       break;
     }
   }
-  if (firstKnown < 0) throw new WaterBalanceInputError("weather", `no weather for any day from ${dayNumberToIsoDate(startDay)}`);
+  if (firstKnown < 0)
+    throw new WaterBalanceInputError(
+      "weather",
+      `no weather for any day from ${dayNumberToIsoDate(startDay)}`,
+    );
   // before the first known day, borrow the mean of the first known days
   let leadSum = 0;
   let leadN = 0;
@@ -242,18 +278,26 @@ export function computeStationEto(
   const startDay = isoDateToDayNumber(startDate, "startDate");
   const n = isoDateToDayNumber(endDate, "endDate") - startDay + 1;
   if (n < 1) throw new WaterBalanceInputError("endDate", "is before startDate");
-  if (n > MAX_ACCOUNT_DAYS) throw new WaterBalanceInputError("endDate", `the span is longer than ${MAX_ACCOUNT_DAYS} days`);
+  if (n > MAX_ACCOUNT_DAYS)
+    throw new WaterBalanceInputError("endDate", `the span is longer than ${MAX_ACCOUNT_DAYS} days`);
   const weatherDays = weatherDayNumbers(weather);
   const { etoMm, provenance } = etoForSpan({ weather, station, options }, startDay, n, weatherDays);
   return { startDate, etoMm, provenance, weather, weatherDays };
 }
 
-function etoFromSeries(series: StationEtoSeries, startDay: number, n: number): { etoMm: Float64Array; provenance: EtoProvenance[] } {
+function etoFromSeries(
+  series: StationEtoSeries,
+  startDay: number,
+  n: number,
+): { etoMm: Float64Array; provenance: EtoProvenance[] } {
   const offset = startDay - isoDateToDayNumber(series.startDate, "eto.startDate");
   if (offset < 0 || offset + n > series.etoMm.length || series.provenance.length !== series.etoMm.length) {
     throw new WaterBalanceInputError("eto", "the ETo series does not cover the account's span");
   }
-  return { etoMm: series.etoMm.subarray(offset, offset + n), provenance: series.provenance.slice(offset, offset + n) };
+  return {
+    etoMm: series.etoMm.subarray(offset, offset + n),
+    provenance: series.provenance.slice(offset, offset + n),
+  };
 }
 
 /** Builds the crop and soil arrays of a season (FAO-56 eq. 62, 65, 66, 72, 76, 82). */
@@ -263,9 +307,14 @@ export function prepareCropSeason(input: FieldAccountInput): PreparedCropSeason 
   const pl = input.planting;
   const plantingDay = isoDateToDayNumber(pl.plantingDate);
   let parsed: Int32Array | null = null;
-  const shared = input.eto?.weather === input.weather && input.eto.weatherDays?.length === input.weather.length ? input.eto.weatherDays : undefined;
+  const shared =
+    input.eto?.weather === input.weather && input.eto.weatherDays?.length === input.weather.length
+      ? input.eto.weatherDays
+      : undefined;
   const weatherDays = (): Int32Array => (parsed ??= shared ?? weatherDayNumbers(input.weather));
-  const { etoMm, provenance } = input.eto ? etoFromSeries(input.eto, startDay, n) : etoForSpan(input, startDay, n, weatherDays());
+  const { etoMm, provenance } = input.eto
+    ? etoFromSeries(input.eto, startDay, n)
+    : etoForSpan(input, startDay, n, weatherDays());
   const kcUsed = pl.climateAdjust ? kcUsedFor(input, weatherDays()) : kcUsedFor(input, new Int32Array(0));
   const curve = { ini: kcUsed.ini, mid: kcUsed.mid, end: kcUsed.end };
   const fallow = pl.fallowKc ?? curve.ini;
@@ -290,20 +339,31 @@ export function prepareCropSeason(input: FieldAccountInput): PreparedCropSeason 
     if (dualSpec && kcMaxArr && cover && weatherByDay) {
       const kcb = kcForDay(i, dualSpec.kcb, pl.stages, dualSpec.kcMin ?? 0.15);
       kc[d] = kcb;
-      const growth = dualSpec.kcb.mid > dualSpec.kcb.ini ? (kcb - dualSpec.kcb.ini) / (dualSpec.kcb.mid - dualSpec.kcb.ini) : 1;
+      const growth =
+        dualSpec.kcb.mid > dualSpec.kcb.ini
+          ? (kcb - dualSpec.kcb.ini) / (dualSpec.kcb.mid - dualSpec.kcb.ini)
+          : 1;
       const h = Math.max(0.05, hMax * Math.min(1, Math.max(0, growth)));
       const w = weatherByDay[d];
-      const u2 = w?.windMs !== undefined ? windAt2mMs(w.windMs, w.windHeightM ?? input.station?.windHeightM ?? 2) : (kcUsed.midWindMs ?? 2);
+      const u2 =
+        w?.windMs !== undefined
+          ? windAt2mMs(w.windMs, w.windHeightM ?? input.station?.windHeightM ?? 2)
+          : (kcUsed.midWindMs ?? 2);
       const rh = w?.rhMinPct ?? kcUsed.midRhMinPct ?? 45;
       const km = kcMax(u2, rh, h, kcb);
       kcMaxArr[d] = km;
-      cover[d] = stage[d] === "before" || stage[d] === "after" ? 0 : canopyCoverFraction(kcb, dualSpec.kcMin ?? 0.15, km, h);
+      cover[d] =
+        stage[d] === "before" || stage[d] === "after"
+          ? 0
+          : canopyCoverFraction(kcb, dualSpec.kcMin ?? 0.15, km, h);
     } else {
       kc[d] = kcForDay(i, curve, pl.stages, fallow);
     }
   }
   if (dualSpec && kcMaxArr && cover) {
-    const tew = dualSpec.tewMm ?? (dualSpec.zeM !== undefined ? 1000 * (soil.thetaFc - 0.5 * soil.thetaWp) * dualSpec.zeM : soil.tewMm);
+    const tew =
+      dualSpec.tewMm ??
+      (dualSpec.zeM !== undefined ? 1000 * (soil.thetaFc - 0.5 * soil.thetaWp) * dualSpec.zeM : soil.tewMm);
     const rew = Math.min(dualSpec.rewMm ?? soil.rewMm, tew);
     dual = {
       kcMax: kcMaxArr,
@@ -314,10 +374,28 @@ export function prepareCropSeason(input: FieldAccountInput): PreparedCropSeason 
       initialDeMm: Math.min(tew, input.initialDepletionMm > 0 ? rew : 0),
     };
   }
-  return { n, startDay, soil, etoMm, etoProvenance: provenance, kc, stage, rootDepthM, tawMm, pTable, dual, kcUsed };
+  return {
+    n,
+    startDay,
+    soil,
+    etoMm,
+    etoProvenance: provenance,
+    kc,
+    stage,
+    rootDepthM,
+    tawMm,
+    pTable,
+    dual,
+    kcUsed,
+  };
 }
 
-function rawWeatherByDay(weather: readonly WeatherDayInput[], weatherDays: Int32Array, startDay: number, n: number): (DailyWeather | undefined)[] {
+function rawWeatherByDay(
+  weather: readonly WeatherDayInput[],
+  weatherDays: Int32Array,
+  startDay: number,
+  n: number,
+): (DailyWeather | undefined)[] {
   const out = new Array<DailyWeather | undefined>(n);
   for (let k = 0; k < weather.length; k++) {
     const w = weather[k]!;

@@ -36,7 +36,9 @@ export function distanceKm(a: LatLon, b: LatLon): number {
   const toRad = Math.PI / 180;
   const dLat = (b.latitudeDeg - a.latitudeDeg) * toRad;
   const dLon = (b.longitudeDeg - a.longitudeDeg) * toRad;
-  const s = Math.sin(dLat / 2) ** 2 + Math.cos(a.latitudeDeg * toRad) * Math.cos(b.latitudeDeg * toRad) * Math.sin(dLon / 2) ** 2;
+  const s =
+    Math.sin(dLat / 2) ** 2 +
+    Math.cos(a.latitudeDeg * toRad) * Math.cos(b.latitudeDeg * toRad) * Math.sin(dLon / 2) ** 2;
   return 2 * 6371 * Math.asin(Math.min(1, Math.sqrt(s)));
 }
 
@@ -58,7 +60,11 @@ export interface GaugeWeightOptions {
  * weight. Gauges without a reading are left out, never counted as zero.
  * @returns the rain (mm, or null when none is in range) and the gauges with their distances and weights
  */
-export function rainFromGauges(target: LatLon, gauges: readonly GaugeReading[], options: GaugeWeightOptions = {}): InterpolatedRain {
+export function rainFromGauges(
+  target: LatLon,
+  gauges: readonly GaugeReading[],
+  options: GaugeWeightOptions = {},
+): InterpolatedRain {
   const method = options.method ?? "idw";
   const radiusKm = requirePositive("radiusKm", options.radiusKm ?? 10);
   const power = requireNonNegative("power", options.power ?? 2);
@@ -72,7 +78,11 @@ export function rainFromGauges(target: LatLon, gauges: readonly GaugeReading[], 
   if (near.length === 0) return { rainMm: null, method, gauges: [] };
   const first = near[0]!;
   if (method === "nearest" || first.d < 1e-6) {
-    return { rainMm: first.g.rainMm, method, gauges: [{ gaugeId: first.g.gaugeId, distanceKm: first.d, weight: 1 }] };
+    return {
+      rainMm: first.g.rainMm,
+      method,
+      gauges: [{ gaugeId: first.g.gaugeId, distanceKm: first.d, weight: 1 }],
+    };
   }
   const used = near.slice(0, maxGauges);
   let sumW = 0;

@@ -22,13 +22,22 @@ export function moistureDeficit(params: GreenAmptParams, thetaInitial: number): 
  * @param depletionMm root-zone depletion, mm
  * @param rootDepthM root-zone depth, m
  */
-export function moistureDeficitFromDepletion(params: GreenAmptParams, thetaFc: number, depletionMm: number, rootDepthM: number): number {
+export function moistureDeficitFromDepletion(
+  params: GreenAmptParams,
+  thetaFc: number,
+  depletionMm: number,
+  rootDepthM: number,
+): number {
   const thetaI = thetaFc - (rootDepthM > 0 ? depletionMm / (1000 * rootDepthM) : 0);
   return moistureDeficit(params, thetaI);
 }
 
 /** Infiltration capacity f = K (1 + ψΔθ/F) (mm/h) after `cumulativeMm` has entered, Chow et al. 1988 eq. 4.3.7. */
-export function infiltrationCapacityMmH(cumulativeMm: number, ksatMmH: number, psiDeltaThetaMm: number): number {
+export function infiltrationCapacityMmH(
+  cumulativeMm: number,
+  ksatMmH: number,
+  psiDeltaThetaMm: number,
+): number {
   if (cumulativeMm <= 0) return psiDeltaThetaMm > 0 ? Infinity : ksatMmH;
   return ksatMmH * (1 + psiDeltaThetaMm / cumulativeMm);
 }
@@ -38,7 +47,12 @@ export function infiltrationCapacityMmH(cumulativeMm: number, ksatMmH: number, p
  * infiltrated: the implicit Green-Ampt equation (Chow et al. 1988 eq. 4.3.6, written from a known F0
  * as in their sec. 4.5): F − F0 − ψΔθ ln[(F + ψΔθ)/(F0 + ψΔθ)] = K Δt, solved by Newton's method from above.
  */
-export function pondedInfiltrationMm(durationH: number, ksatMmH: number, psiDeltaThetaMm: number, startMm = 0): number {
+export function pondedInfiltrationMm(
+  durationH: number,
+  ksatMmH: number,
+  psiDeltaThetaMm: number,
+  startMm = 0,
+): number {
   requireNonNegative("durationH", durationH);
   return pondedStep(durationH, ksatMmH, psiDeltaThetaMm, startMm, Infinity);
 }
@@ -162,5 +176,11 @@ export function greenAmptColumns(
     f += entered;
     runoff += depth - entered;
   }
-  return { rainMm: rain, infiltrationMm: rain - runoff, runoffMm: runoff, pondedAtMs: pondedAtMs < 0 ? null : pondedAtMs, pondedH };
+  return {
+    rainMm: rain,
+    infiltrationMm: rain - runoff,
+    runoffMm: runoff,
+    pondedAtMs: pondedAtMs < 0 ? null : pondedAtMs,
+    pondedH,
+  };
 }

@@ -100,7 +100,13 @@ export {
 export type { SurfaceLayerDay } from "./dual-coefficient";
 export { CROP_LIBRARY, findCrop } from "./crops";
 export type { CropLibraryEntry } from "./crops";
-export { SOIL_TEXTURES, findTexture, totalAvailableWaterMm, readilyAvailableWaterMm, resolveSoil } from "./soils";
+export {
+  SOIL_TEXTURES,
+  findTexture,
+  totalAvailableWaterMm,
+  readilyAvailableWaterMm,
+  resolveSoil,
+} from "./soils";
 export type { SoilTexture, TextureId, GreenAmptParams, SoilSpec, ResolvedSoil } from "./soils";
 
 // Rain that counts
@@ -114,7 +120,14 @@ export {
   slopeAdjustedCurveNumber,
   CURVE_NUMBER_TABLE,
 } from "./runoff";
-export type { AntecedentCondition, AntecedentFormula, AntecedentThresholds, CurveNumberOptions, HydrologicSoilGroup, RunoffCover } from "./runoff";
+export type {
+  AntecedentCondition,
+  AntecedentFormula,
+  AntecedentThresholds,
+  CurveNumberOptions,
+  HydrologicSoilGroup,
+  RunoffCover,
+} from "./runoff";
 export {
   moistureDeficit,
   moistureDeficitFromDepletion,
@@ -144,8 +157,20 @@ export {
   dailyTotalsFromRecords,
 } from "./reading-day";
 export { rainFromGauges, distanceKm } from "./gauge-weights";
-export type { LatLon, GaugeReading, GaugeWeight, InterpolatedRain, GaugeWeightOptions } from "./gauge-weights";
-export { unitKineticEnergyMJhaMm, stormEnergy, stormEnergyColumns, maxDepthInWindowMm, surfaceSealing } from "./rain-energy";
+export type {
+  LatLon,
+  GaugeReading,
+  GaugeWeight,
+  InterpolatedRain,
+  GaugeWeightOptions,
+} from "./gauge-weights";
+export {
+  unitKineticEnergyMJhaMm,
+  stormEnergy,
+  stormEnergyColumns,
+  maxDepthInWindowMm,
+  surfaceSealing,
+} from "./rain-energy";
 export type { KineticEnergyMethod, StormEnergy, SealingOptions } from "./rain-energy";
 export {
   marshallPalmerLambdaPerMm,
@@ -180,4 +205,11 @@ export type * from "./account-types";
 export { computeOutlook, irrigationDepths } from "./outlook";
 export type { OutlookInput, OutlookResult, OutlookDay, ApplicationRate } from "./outlook";
 export { planFarm, planFieldFromOutlook } from "./farm-plan";
-export type { CapacityGroup, PlanField, FarmPlanInput, FarmPlanResult, PlannedIrrigation, ShortfallDay } from "./farm-plan";
+export type {
+  CapacityGroup,
+  PlanField,
+  FarmPlanInput,
+  FarmPlanResult,
+  PlannedIrrigation,
+  ShortfallDay,
+} from "./farm-plan";

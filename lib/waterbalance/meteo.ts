@@ -41,10 +41,19 @@ export function vapourPressureFromDewpointKPa(tDewC: number): number {
  * Actual vapour pressure ea (kPa) from RHmax and RHmin (%), FAO-56 eq. 17:
  * ea = [e°(Tmin) RHmax/100 + e°(Tmax) RHmin/100] / 2.
  */
-export function vapourPressureFromRhMaxMinKPa(tMaxC: number, tMinC: number, rhMaxPct: number, rhMinPct: number): number {
+export function vapourPressureFromRhMaxMinKPa(
+  tMaxC: number,
+  tMinC: number,
+  rhMaxPct: number,
+  rhMinPct: number,
+): number {
   requireRange("rhMaxPct", rhMaxPct, 0, 100);
   requireRange("rhMinPct", rhMinPct, 0, 100);
-  return (saturationVapourPressureKPa(tMinC) * (rhMaxPct / 100) + saturationVapourPressureKPa(tMaxC) * (rhMinPct / 100)) / 2;
+  return (
+    (saturationVapourPressureKPa(tMinC) * (rhMaxPct / 100) +
+      saturationVapourPressureKPa(tMaxC) * (rhMinPct / 100)) /
+    2
+  );
 }
 
 /** Actual vapour pressure ea (kPa) from RHmax alone (%), FAO-56 eq. 18: ea = e°(Tmin) RHmax/100. */

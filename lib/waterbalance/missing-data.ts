@@ -6,7 +6,8 @@ import type { DailyWeather, StationSite } from "./reference-et";
 /** FAO-56 chapter 3 "missing data" procedures, and the order in which measured inputs are preferred. */
 
 /** Where the day's ea came from. */
-export type HumiditySource = "measured-ea" | "dewpoint" | "rh-max-min" | "rh-max" | "rh-mean" | "tmin" | "none";
+export type HumiditySource =
+  "measured-ea" | "dewpoint" | "rh-max-min" | "rh-max" | "rh-mean" | "tmin" | "none";
 /** Where the day's Rs came from. */
 export type SolarSource = "measured" | "sunshine" | "temperature-range" | "none";
 /** Where the day's u2 came from. */
@@ -71,10 +72,17 @@ export function fillDailyInputs(
     out.rsMJm2 = w.solarMJm2;
     out.solarSource = "measured";
   } else if (w.sunshineHours !== undefined) {
-    out.rsMJm2 = solarFromSunshineMJm2(w.sunshineHours, daylightH, raMJm2, { as: site.angstromA, bs: site.angstromB });
+    out.rsMJm2 = solarFromSunshineMJm2(w.sunshineHours, daylightH, raMJm2, {
+      as: site.angstromA,
+      bs: site.angstromB,
+    });
     out.solarSource = "sunshine";
   } else {
-    out.rsMJm2 = solarFromTemperatureRangeMJm2(w.tMaxC, w.tMinC, raMJm2, { coastal: site.coastal, kRs: site.kRs, elevationM: site.elevationM });
+    out.rsMJm2 = solarFromTemperatureRangeMJm2(w.tMaxC, w.tMinC, raMJm2, {
+      coastal: site.coastal,
+      kRs: site.kRs,
+      elevationM: site.elevationM,
+    });
     out.solarSource = "temperature-range";
   }
   if (w.windMs === undefined) {

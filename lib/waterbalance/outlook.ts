@@ -7,8 +7,7 @@ import { requireNonNegative, requirePositive, requireRange, WaterBalanceInputErr
 
 /** How the system delivers water, for run time. */
 export type ApplicationRate =
-  | { kind: "flow"; flowRateM3H: number }
-  | { kind: "pivot"; depthPerPassMm: number; hoursPerPass: number };
+  { kind: "flow"; flowRateM3H: number } | { kind: "pivot"; depthPerPassMm: number; hoursPerPass: number };
 
 /** Inputs of {@link computeOutlook}. */
 export interface OutlookInput {
@@ -161,7 +160,12 @@ export function computeOutlook(input: OutlookInput): OutlookResult {
   };
   if (triggerIdx < 0) return base;
   const net = Math.max(0, loop.depletionEndMm[triggerIdx]! - reserve);
-  const rec = irrigationDepths(net, input.system.applicationEfficiency, input.field.areaHa, input.application);
+  const rec = irrigationDepths(
+    net,
+    input.system.applicationEfficiency,
+    input.field.areaHa,
+    input.application,
+  );
   return { ...base, triggerDate: days[triggerIdx]!.date, daysUntilTrigger: triggerIdx, ...rec };
 }
 
@@ -175,7 +179,13 @@ export function irrigationDepths(
   applicationEfficiency: number,
   areaHa: number,
   application?: ApplicationRate,
-): { netDepthMm: number; grossDepthMm: number; grossVolumeM3: number; runTimeH: number | null; pivotPasses: number | null } {
+): {
+  netDepthMm: number;
+  grossDepthMm: number;
+  grossVolumeM3: number;
+  runTimeH: number | null;
+  pivotPasses: number | null;
+} {
   requireNonNegative("netDepthMm", netDepthMm);
   requireRange("applicationEfficiency", applicationEfficiency, 0.01, 1);
   requirePositive("areaHa", areaHa);

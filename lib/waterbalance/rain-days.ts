@@ -46,7 +46,12 @@ export interface PreparedWaterSeason {
   stormDays: Map<number, StormDay>;
 }
 
-const NO_RECORD: RainProvenance = Object.freeze({ source: "no-record", gauges: Object.freeze([]) as readonly [], missing: false, recorded: false });
+const NO_RECORD: RainProvenance = Object.freeze({
+  source: "no-record",
+  gauges: Object.freeze([]) as readonly [],
+  missing: false,
+  recorded: false,
+});
 
 /** Hydrologic soil group guessed from texture when a field gives none (common practice, no source). */
 const GROUP_BY_TEXTURE: Record<TextureId, HydrologicSoilGroup> = {
@@ -66,7 +71,10 @@ const GROUP_BY_TEXTURE: Record<TextureId, HydrologicSoilGroup> = {
 
 const CONDITIONS: AntecedentCondition[] = ["dry", "average", "wet"];
 
-function curveNumberSetup(input: FieldAccountInput, soil: ResolvedSoil): { loop: LoopCurveNumber | null; average: number | null; source: string; iaRatio: number } {
+function curveNumberSetup(
+  input: FieldAccountInput,
+  soil: ResolvedSoil,
+): { loop: LoopCurveNumber | null; average: number | null; source: string; iaRatio: number } {
   const spec = input.field.runoff ?? {};
   const iaRatio = spec.iaRatio ?? 0.2;
   if (spec.dailyMethod === "none") return { loop: null, average: null, source: "", iaRatio };
@@ -110,7 +118,12 @@ function curveNumberSetup(input: FieldAccountInput, soil: ResolvedSoil): { loop:
 }
 
 /** Builds the rain, irrigation, capillary-rise and soil-check arrays for the span. */
-export function prepareWaterSeason(input: FieldAccountInput, soil: ResolvedSoil, startDay: number, n: number): PreparedWaterSeason {
+export function prepareWaterSeason(
+  input: FieldAccountInput,
+  soil: ResolvedSoil,
+  startDay: number,
+  n: number,
+): PreparedWaterSeason {
   const f = float64Columns(n, 5);
   const b = uint8Columns(n, 2);
   const rainMm = f[0]!;
@@ -124,7 +137,8 @@ export function prepareWaterSeason(input: FieldAccountInput, soil: ResolvedSoil,
   for (const r of input.rain) {
     const d = isoDateToDayNumber(r.date, "rain.date") - startDay;
     if (d < 0 || d >= n) continue;
-    if (seen.has(d)) throw new WaterBalanceInputError("rain", `two rain entries for ${r.date}; give one per day`);
+    if (seen.has(d))
+      throw new WaterBalanceInputError("rain", `two rain entries for ${r.date}; give one per day`);
     seen.add(d);
     const gauges = r.source?.gauges ?? [];
     const source = r.source?.kind ?? "other";
@@ -140,7 +154,11 @@ export function prepareWaterSeason(input: FieldAccountInput, soil: ResolvedSoil,
       rainProvenance[d] = { source, gauges, missing: false, recorded: true };
       if (soil.greenAmpt) {
         runoffKind[d] = RUNOFF_STORM;
-        stormDays.set(d, { hyetograph, bounds: stormBounds(hyetograph, input.options?.storms?.dryGapH), droppedTips });
+        stormDays.set(d, {
+          hyetograph,
+          bounds: stormBounds(hyetograph, input.options?.storms?.dryGapH),
+          droppedTips,
+        });
       }
     }
   }
@@ -165,7 +183,9 @@ export function prepareWaterSeason(input: FieldAccountInput, soil: ResolvedSoil,
   const capillaryRiseMm = f[3]!;
   for (const c of input.capillaryRise ?? []) {
     const d = isoDateToDayNumber(c.date, "capillaryRise.date") - startDay;
-    if (d >= 0 && d < n) capillaryRiseMm[d] = capillaryRiseMm[d]! + requireNonNegative("capillaryRise.capillaryRiseMm", c.capillaryRiseMm);
+    if (d >= 0 && d < n)
+      capillaryRiseMm[d] =
+        capillaryRiseMm[d]! + requireNonNegative("capillaryRise.capillaryRiseMm", c.capillaryRiseMm);
   }
   const soilCheckMm = f[4]!.fill(NaN);
   for (const c of input.soilChecks ?? []) {
@@ -249,7 +269,13 @@ export function makeStormRunoff(
         sealFactor = seal.ksatFactor;
       }
     }
-    provenance[d] = { method: "green-ampt", storms: records, sealed, sealFormed, droppedTips: day.droppedTips };
+    provenance[d] = {
+      method: "green-ampt",
+      storms: records,
+      sealed,
+      sealFormed,
+      droppedTips: day.droppedTips,
+    };
     return runoff;
   };
 }

@@ -14,7 +14,10 @@ export type KineticEnergyMethod = "mcgregor-1995" | "brown-foster-1987" | "wisch
  * 'wischmeier-smith-1978' (USLE): e = 0.119 + 0.0873 log10 i, held at 0.283 above 76 mm/h
  * (Wischmeier and Smith 1978, metric form).
  */
-export function unitKineticEnergyMJhaMm(intensityMmH: number, method: KineticEnergyMethod = "mcgregor-1995"): number {
+export function unitKineticEnergyMJhaMm(
+  intensityMmH: number,
+  method: KineticEnergyMethod = "mcgregor-1995",
+): number {
   if (!(intensityMmH >= 0)) requireNonNegative("intensityMmH", intensityMmH);
   switch (method) {
     case "mcgregor-1995":
@@ -101,13 +104,21 @@ export interface StormEnergy {
  * 30-minute depth × 2, EI30 = E · I30 (Wischmeier and Smith 1978; Renard et al. 1997 for the
  * erosive-storm rule).
  */
-export function stormEnergy(pieces: readonly HyetographPiece[], method: KineticEnergyMethod = "mcgregor-1995"): StormEnergy {
+export function stormEnergy(
+  pieces: readonly HyetographPiece[],
+  method: KineticEnergyMethod = "mcgregor-1995",
+): StormEnergy {
   const h = piecesToColumns(pieces);
   return stormEnergyColumns(h, 0, h.n, method);
 }
 
 /** {@link stormEnergy} on pieces `from`..`to` (exclusive) of a columnar hyetograph. */
-export function stormEnergyColumns(h: HyetographColumns, from: number, to: number, method: KineticEnergyMethod = "mcgregor-1995"): StormEnergy {
+export function stormEnergyColumns(
+  h: HyetographColumns,
+  from: number,
+  to: number,
+  method: KineticEnergyMethod = "mcgregor-1995",
+): StormEnergy {
   const n = to - from;
   let energy = 0;
   let peak = 0;
@@ -155,7 +166,11 @@ export interface SealingOptions {
  * that lowers infiltration for the following days. Returns the K multiplier and how long it lasts,
  * or null when no seal forms.
  */
-export function surfaceSealing(storm: Pick<StormEnergy, "energyMJha">, bareSoil: boolean, options: SealingOptions = {}): { ksatFactor: number; days: number } | null {
+export function surfaceSealing(
+  storm: Pick<StormEnergy, "energyMJha">,
+  bareSoil: boolean,
+  options: SealingOptions = {},
+): { ksatFactor: number; days: number } | null {
   if (!bareSoil) return null;
   if (storm.energyMJha < (options.energyThresholdMJha ?? 2)) return null;
   return { ksatFactor: options.ksatFactor ?? 0.5, days: options.days ?? 7 };

@@ -34,7 +34,11 @@ export function accountDayOfInstant(atMs: number, timeZone: string, boundaryHour
  * boundary nearest the reading, so a 09:00 (or 08:40, or 09:30) reading on the 30th is booked to the
  * 29th. Farms read once a day at a fixed hour (common practice, no source).
  */
-export function accountDayOfManualReading(readAt: string | number, timeZone: string, boundaryHour: number): string {
+export function accountDayOfManualReading(
+  readAt: string | number,
+  timeZone: string,
+  boundaryHour: number,
+): string {
   requireRange("boundaryHour", boundaryHour, 0, 24);
   const shifted = localMs(toEpochMs(readAt, "readAt"), timeZone) - boundaryHour * 3_600_000;
   return dayNumberToIsoDate(Math.round(shifted / 86_400_000) - 1);
@@ -69,7 +73,11 @@ export function groupRecordsByAccountDay(
 }
 
 /** Daily totals (mm) by account day from time-stamped records, using the same boundary as manual readings. */
-export function dailyTotalsFromRecords(records: readonly RainRecord[], timeZone: string, boundaryHour: number): Map<string, number> {
+export function dailyTotalsFromRecords(
+  records: readonly RainRecord[],
+  timeZone: string,
+  boundaryHour: number,
+): Map<string, number> {
   const out = new Map<string, number>();
   for (const g of groupRecordsByAccountDay(records, timeZone, boundaryHour)) out.set(g.date, g.rainMm);
   return out;

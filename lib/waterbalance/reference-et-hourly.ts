@@ -1,7 +1,20 @@
 import { dayOfYear } from "./dates";
 import { requireNonNegative, requireRange } from "./errors";
-import { atmosphericPressureKPa, psychrometricConstantKPaC, saturationSlopeKPaC, saturationVapourPressureKPa, windAt2mMs } from "./meteo";
-import { cloudinessFactor, inverseRelativeDistance, REFERENCE_ALBEDO, solarDeclinationRad, SOLAR_CONSTANT_MJ_M2_MIN, sunsetHourAngleRad } from "./solar";
+import {
+  atmosphericPressureKPa,
+  psychrometricConstantKPaC,
+  saturationSlopeKPaC,
+  saturationVapourPressureKPa,
+  windAt2mMs,
+} from "./meteo";
+import {
+  cloudinessFactor,
+  inverseRelativeDistance,
+  REFERENCE_ALBEDO,
+  solarDeclinationRad,
+  SOLAR_CONSTANT_MJ_M2_MIN,
+  sunsetHourAngleRad,
+} from "./solar";
 
 /** FAO-56 hourly Penman-Monteith (eq. 53) for logger data, with the hourly radiation terms (eq. 28-33). */
 
@@ -21,7 +34,12 @@ export function seasonalCorrectionHours(doy: number): number {
  * @param longitudeDeg site longitude, degrees east positive (FAO-56 uses degrees west; the sign flips)
  * @param utcOffsetHours offset of the local standard time zone from UTC, h (FAO-56 Lz = −15·offset °W)
  */
-export function solarTimeAngleRad(standardHourMid: number, longitudeDeg: number, utcOffsetHours: number, doy: number): number {
+export function solarTimeAngleRad(
+  standardHourMid: number,
+  longitudeDeg: number,
+  utcOffsetHours: number,
+  doy: number,
+): number {
   const t = standardHourMid + 0.06667 * (longitudeDeg - 15 * utcOffsetHours) + seasonalCorrectionHours(doy);
   return (Math.PI / 12) * (t - 12);
 }
@@ -30,7 +48,12 @@ export function solarTimeAngleRad(standardHourMid: number, longitudeDeg: number,
  * Extraterrestrial radiation for a period of `periodHours` around solar time angle ω (MJ m⁻² per
  * period), FAO-56 eq. 28-30, with ω1 and ω2 held within ±ωs so partial sunrise and sunset hours count.
  */
-export function extraterrestrialRadiationPeriodMJm2(latitudeDeg: number, doy: number, omegaRad: number, periodHours = 1): number {
+export function extraterrestrialRadiationPeriodMJm2(
+  latitudeDeg: number,
+  doy: number,
+  omegaRad: number,
+  periodHours = 1,
+): number {
   requireRange("latitudeDeg", latitudeDeg, -90, 90);
   const phi = (latitudeDeg * Math.PI) / 180;
   const dr = inverseRelativeDistance(doy);
@@ -55,7 +78,8 @@ export function extraterrestrialRadiationPeriodMJm2(latitudeDeg: number, doy: nu
     ((12 * 60) / Math.PI) *
     SOLAR_CONSTANT_MJ_M2_MIN *
     dr *
-    ((w2 - w1) * Math.sin(phi) * Math.sin(decl) + Math.cos(phi) * Math.cos(decl) * (Math.sin(w2) - Math.sin(w1)));
+    ((w2 - w1) * Math.sin(phi) * Math.sin(decl) +
+      Math.cos(phi) * Math.cos(decl) * (Math.sin(w2) - Math.sin(w1)));
   return Math.max(0, ra);
 }
 
@@ -132,7 +156,8 @@ export function referenceEtHourly(
   const raMJm2 = extraterrestrialRadiationPeriodMJm2(site.latitudeDeg, doy, omegaRad, 1);
   const rsoMJm2 = (0.75 + 2e-5 * site.elevationM) * raMJm2;
   const daytime = raMJm2 > 0.001 && w.solarMJm2 > 0;
-  const rsOverRso = daytime && rsoMJm2 > 0 ? Math.min(1, w.solarMJm2 / rsoMJm2) : (options.rsOverRsoDark ?? 0.8);
+  const rsOverRso =
+    daytime && rsoMJm2 > 0 ? Math.min(1, w.solarMJm2 / rsoMJm2) : (options.rsOverRsoDark ?? 0.8);
   const pressureKPa = atmosphericPressureKPa(site.elevationM);
   const gammaKPaC = psychrometricConstantKPaC(pressureKPa);
   const deltaKPaC = saturationSlopeKPaC(w.tempC);
@@ -140,11 +165,20 @@ export function referenceEtHourly(
   const eaKPa = (eSatKPa * w.rhPct) / 100;
   const tK = w.tempC + 273.16;
   const rnsMJm2 = (1 - REFERENCE_ALBEDO) * w.solarMJm2;
-  const rnlMJm2 = STEFAN_BOLTZMANN_MJ_HOUR * tK * tK * tK * tK * (0.34 - 0.14 * Math.sqrt(eaKPa)) * cloudinessFactor(rsOverRso);
+  const rnlMJm2 =
+    STEFAN_BOLTZMANN_MJ_HOUR *
+    tK *
+    tK *
+    tK *
+    tK *
+    (0.34 - 0.14 * Math.sqrt(eaKPa)) *
+    cloudinessFactor(rsOverRso);
   const rnMJm2 = rnsMJm2 - rnlMJm2;
   const gMJm2 = (daytime ? 0.1 : 0.5) * rnMJm2;
-  const u2Ms = w.windHeightM === undefined || w.windHeightM === 2 ? w.windMs : windAt2mMs(w.windMs, w.windHeightM);
-  const num = 0.408 * deltaKPaC * (rnMJm2 - gMJm2) + gammaKPaC * (37 / (w.tempC + 273)) * u2Ms * (eSatKPa - eaKPa);
+  const u2Ms =
+    w.windHeightM === undefined || w.windHeightM === 2 ? w.windMs : windAt2mMs(w.windMs, w.windHeightM);
+  const num =
+    0.408 * deltaKPaC * (rnMJm2 - gMJm2) + gammaKPaC * (37 / (w.tempC + 273)) * u2Ms * (eSatKPa - eaKPa);
   const eto = num / (deltaKPaC + gammaKPaC * (1 + 0.34 * u2Ms));
   return {
     etoMm: Math.max(0, eto),

@@ -129,7 +129,9 @@ export function penmanMonteithEtoMm(t: {
   esKPa: number;
   eaKPa: number;
 }): number {
-  const num = 0.408 * t.deltaKPaC * (t.rnMJm2 - t.gMJm2) + t.gammaKPaC * (900 / (t.tMeanC + 273)) * t.u2Ms * (t.esKPa - t.eaKPa);
+  const num =
+    0.408 * t.deltaKPaC * (t.rnMJm2 - t.gMJm2) +
+    t.gammaKPaC * (900 / (t.tMeanC + 273)) * t.u2Ms * (t.esKPa - t.eaKPa);
   return num / (t.deltaKPaC + t.gammaKPaC * (1 + 0.34 * t.u2Ms));
 }
 
@@ -137,9 +139,13 @@ export function penmanMonteithEtoMm(t: {
 export function validateDailyWeather(w: DailyWeather): void {
   // the common case in one pass of plain comparisons; the checks below name what is wrong
   if (
-    w.tMaxC >= -60 && w.tMaxC <= 60 && w.tMinC >= -70 && w.tMinC <= w.tMaxC &&
+    w.tMaxC >= -60 &&
+    w.tMaxC <= 60 &&
+    w.tMinC >= -70 &&
+    w.tMinC <= w.tMaxC &&
     (w.rhMaxPct === undefined || (w.rhMaxPct >= 0 && w.rhMaxPct <= 100)) &&
-    (w.rhMinPct === undefined || (w.rhMinPct >= 0 && w.rhMinPct <= 100 && (w.rhMaxPct === undefined || w.rhMinPct <= w.rhMaxPct))) &&
+    (w.rhMinPct === undefined ||
+      (w.rhMinPct >= 0 && w.rhMinPct <= 100 && (w.rhMaxPct === undefined || w.rhMinPct <= w.rhMaxPct))) &&
     (w.rhMeanPct === undefined || (w.rhMeanPct >= 0 && w.rhMeanPct <= 100)) &&
     (w.tDewC === undefined || (w.tDewC >= -80 && w.tDewC <= 40)) &&
     (w.eaKPa === undefined || (w.eaKPa >= 0 && w.eaKPa < Infinity)) &&
@@ -153,13 +159,19 @@ export function validateDailyWeather(w: DailyWeather): void {
   requireRange("tMaxC", w.tMaxC, -60, 60);
   requireRange("tMinC", w.tMinC, -70, 60);
   if (w.tMaxC < w.tMinC) {
-    throw new WaterBalanceInputError("tMaxC", `Tmax (${w.tMaxC} °C) is below Tmin (${w.tMinC} °C) on ${w.date}`);
+    throw new WaterBalanceInputError(
+      "tMaxC",
+      `Tmax (${w.tMaxC} °C) is below Tmin (${w.tMinC} °C) on ${w.date}`,
+    );
   }
   if (w.rhMaxPct !== undefined) requireRange("rhMaxPct", w.rhMaxPct, 0, 100);
   if (w.rhMinPct !== undefined) requireRange("rhMinPct", w.rhMinPct, 0, 100);
   if (w.rhMeanPct !== undefined) requireRange("rhMeanPct", w.rhMeanPct, 0, 100);
   if (w.rhMaxPct !== undefined && w.rhMinPct !== undefined && w.rhMinPct > w.rhMaxPct) {
-    throw new WaterBalanceInputError("rhMinPct", `RHmin (${w.rhMinPct}) is above RHmax (${w.rhMaxPct}) on ${w.date}`);
+    throw new WaterBalanceInputError(
+      "rhMinPct",
+      `RHmin (${w.rhMinPct}) is above RHmax (${w.rhMaxPct}) on ${w.date}`,
+    );
   }
   if (w.tDewC !== undefined) requireRange("tDewC", w.tDewC, -80, 40);
   if (w.eaKPa !== undefined) requireNonNegative("eaKPa", w.eaKPa);
@@ -180,7 +192,11 @@ export interface SiteConstants {
 export function siteConstants(site: StationSite): SiteConstants {
   requireRange("latitudeDeg", site.latitudeDeg, -90, 90);
   const pressureKPa = atmosphericPressureKPa(site.elevationM);
-  return { pressureKPa, gammaKPaC: psychrometricConstantKPaC(pressureKPa), rsoFactor: 0.75 + 2e-5 * site.elevationM };
+  return {
+    pressureKPa,
+    gammaKPaC: psychrometricConstantKPaC(pressureKPa),
+    rsoFactor: 0.75 + 2e-5 * site.elevationM,
+  };
 }
 
 /** Scratch record for {@link computeDailyEtoInto}: every term, the method and where inputs came from. */
@@ -243,7 +259,11 @@ export function computeDailyEtoInto(
   const decl = 0.409 * Math.sin(((2 * Math.PI) / 365) * doy - 1.39);
   const x = -Math.tan(phi) * Math.tan(decl);
   const ws = Math.acos(x < -1 ? -1 : x > 1 ? 1 : x);
-  const raRaw = ((24 * 60) / Math.PI) * 0.082 * dr * (ws * Math.sin(phi) * Math.sin(decl) + Math.cos(phi) * Math.cos(decl) * Math.sin(ws));
+  const raRaw =
+    ((24 * 60) / Math.PI) *
+    0.082 *
+    dr *
+    (ws * Math.sin(phi) * Math.sin(decl) + Math.cos(phi) * Math.cos(decl) * Math.sin(ws));
   const raMJm2 = raRaw > 0 ? raRaw : 0;
   const nHours = (24 / Math.PI) * ws;
   const tMeanC = (weather.tMaxC + weather.tMinC) / 2;
@@ -308,7 +328,11 @@ export function estimatedFromMask(mask: number): EstimatedInput[] {
  * @returns ETo (mm d⁻¹), the method, the list of estimated inputs and every intermediate quantity
  * @throws WaterBalanceInputError on impossible input
  */
-export function referenceEtDaily(weather: DailyWeather, site: StationSite, options: ReferenceEtOptions = {}): DailyEtoResult {
+export function referenceEtDaily(
+  weather: DailyWeather,
+  site: StationSite,
+  options: ReferenceEtOptions = {},
+): DailyEtoResult {
   const consts = siteConstants(site);
   validateDailyWeather(weather);
   const s = computeDailyEtoInto(weather, site, consts, dayOfYear(weather.date), options, emptyEtoScratch());

@@ -57,14 +57,24 @@ export type AntecedentFormula = "hawkins-1985" | "chow-1988";
  * 'chow-1988': CN I = 4.2 CN/(10 − 0.058 CN), CN III = 23 CN/(10 + 0.13 CN), Chow, Maidment and Mays
  * (1988) eq. 5.5.4-5.5.5 after NEH-4 (1972) (from memory).
  */
-export function curveNumberForCondition(cnAverage: number, condition: AntecedentCondition, formula: AntecedentFormula = "hawkins-1985"): number {
+export function curveNumberForCondition(
+  cnAverage: number,
+  condition: AntecedentCondition,
+  formula: AntecedentFormula = "hawkins-1985",
+): number {
   requireRange("curveNumber", cnAverage, 1, 100);
   if (condition === "average") return cnAverage;
   let cn: number;
   if (formula === "hawkins-1985") {
-    cn = condition === "dry" ? cnAverage / (2.281 - 0.01281 * cnAverage) : cnAverage / (0.427 + 0.00573 * cnAverage);
+    cn =
+      condition === "dry"
+        ? cnAverage / (2.281 - 0.01281 * cnAverage)
+        : cnAverage / (0.427 + 0.00573 * cnAverage);
   } else {
-    cn = condition === "dry" ? (4.2 * cnAverage) / (10 - 0.058 * cnAverage) : (23 * cnAverage) / (10 + 0.13 * cnAverage);
+    cn =
+      condition === "dry"
+        ? (4.2 * cnAverage) / (10 - 0.058 * cnAverage)
+        : (23 * cnAverage) / (10 + 0.13 * cnAverage);
   }
   return Math.min(100, Math.max(1, cn));
 }
@@ -85,7 +95,11 @@ export interface AntecedentThresholds {
 }
 
 /** Antecedent condition of a field whose root zone is `depletionMm` short of field capacity out of `tawMm`. */
-export function antecedentFromDepletion(depletionMm: number, tawMm: number, t: AntecedentThresholds = {}): AntecedentCondition {
+export function antecedentFromDepletion(
+  depletionMm: number,
+  tawMm: number,
+  t: AntecedentThresholds = {},
+): AntecedentCondition {
   const frac = tawMm > 0 ? depletionMm / tawMm : 0;
   if (frac <= (t.wetAtOrBelow ?? 0.1)) return "wet";
   if (frac >= (t.dryAtOrAbove ?? 0.5)) return "dry";
@@ -111,17 +125,18 @@ export type RunoffCover =
  * Average-condition curve numbers for agricultural lands, NEH Part 630 ch. 9 Table 9-1 / TR-55
  * Table 2-2b (from memory), by hydrologic soil group A, B, C, D.
  */
-export const CURVE_NUMBER_TABLE: Readonly<Record<RunoffCover, readonly [number, number, number, number]>> = Object.freeze({
-  "fallow-bare": [77, 86, 91, 94],
-  "row-crop-straight-poor": [72, 81, 88, 91],
-  "row-crop-straight-good": [67, 78, 85, 89],
-  "row-crop-contoured-good": [65, 75, 82, 86],
-  "small-grain-straight-good": [63, 75, 83, 87],
-  "legume-rotation-straight-good": [58, 72, 81, 85],
-  "pasture-good": [39, 61, 74, 80],
-  "pasture-fair": [49, 69, 79, 84],
-  "pasture-poor": [68, 79, 86, 89],
-});
+export const CURVE_NUMBER_TABLE: Readonly<Record<RunoffCover, readonly [number, number, number, number]>> =
+  Object.freeze({
+    "fallow-bare": [77, 86, 91, 94],
+    "row-crop-straight-poor": [72, 81, 88, 91],
+    "row-crop-straight-good": [67, 78, 85, 89],
+    "row-crop-contoured-good": [65, 75, 82, 86],
+    "small-grain-straight-good": [63, 75, 83, 87],
+    "legume-rotation-straight-good": [58, 72, 81, 85],
+    "pasture-good": [39, 61, 74, 80],
+    "pasture-fair": [49, 69, 79, 84],
+    "pasture-poor": [68, 79, 86, 89],
+  });
 
 /** Curve number (condition II) for a hydrologic soil group and cover, from {@link CURVE_NUMBER_TABLE}. */
 export function curveNumberFor(group: HydrologicSoilGroup, cover: RunoffCover): number {
@@ -129,7 +144,8 @@ export function curveNumberFor(group: HydrologicSoilGroup, cover: RunoffCover): 
   if (!row) throw new WaterBalanceInputError("runoff.cover", `unknown cover "${cover}"`);
   const i = "ABCD".indexOf(group);
   const cn = row[i];
-  if (cn === undefined) throw new WaterBalanceInputError("runoff.hydrologicSoilGroup", `unknown group "${group}"`);
+  if (cn === undefined)
+    throw new WaterBalanceInputError("runoff.hydrologicSoilGroup", `unknown group "${group}"`);
   return cn;
 }
 

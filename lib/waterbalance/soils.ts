@@ -53,7 +53,8 @@ export interface SoilTexture {
 
 const T19 = "FAO-56 Table 19";
 const T19_MEMORY = "FAO-56 Table 19 (from memory)";
-const RBS82 = "θFC, θWP: Rawls, Brakensiek and Saxton (1982) at −33 and −1500 kPa (from memory); REW 9 mm and TEW by FAO-56 eq. 73 with Ze 0.10 m (common practice, no source)";
+const RBS82 =
+  "θFC, θWP: Rawls, Brakensiek and Saxton (1982) at −33 and −1500 kPa (from memory); REW 9 mm and TEW by FAO-56 eq. 73 with Ze 0.10 m (common practice, no source)";
 const RBM83 = "Rawls, Brakensiek and Miller (1983), via Chow, Maidment and Mays (1988) Table 4.3.1";
 
 function tx(
@@ -77,7 +78,12 @@ function tx(
     rewMm: rew,
     tewMm: tew,
     waterSource,
-    greenAmpt: { porosity: ga[0], effectivePorosity: ga[1], suctionMm: ga[2] * 10, ksatMmH: round3(ga[3] * 10) },
+    greenAmpt: {
+      porosity: ga[0],
+      effectivePorosity: ga[1],
+      suctionMm: ga[2] * 10,
+      ksatMmH: round3(ga[3] * 10),
+    },
     greenAmptSource: gaSource,
   };
 }
@@ -93,10 +99,38 @@ export const SOIL_TEXTURES: readonly SoilTexture[] = Object.freeze([
   tx("sandy-loam", "Sandy loam", [0.18, 0.28], [0.06, 0.16], 8, 17.5, T19, [0.453, 0.412, 11.01, 1.09]),
   tx("loam", "Loam", [0.2, 0.3], [0.07, 0.17], 9, 19, T19, [0.463, 0.434, 8.89, 0.34]),
   tx("silt-loam", "Silt loam", [0.22, 0.36], [0.09, 0.21], 9.5, 21.5, T19, [0.501, 0.486, 16.68, 0.65]),
-  tx("silt", "Silt", [0.28, 0.36], [0.12, 0.22], 9.5, 24, T19_MEMORY, [0.501, 0.486, 16.68, 0.65], `silt loam values (${RBM83} has no silt class)`),
-  tx("sandy-clay-loam", "Sandy clay loam", [0.255, 0.255], [0.148, 0.148], 9, 18.1, RBS82, [0.398, 0.33, 21.85, 0.15]),
+  tx(
+    "silt",
+    "Silt",
+    [0.28, 0.36],
+    [0.12, 0.22],
+    9.5,
+    24,
+    T19_MEMORY,
+    [0.501, 0.486, 16.68, 0.65],
+    `silt loam values (${RBM83} has no silt class)`,
+  ),
+  tx(
+    "sandy-clay-loam",
+    "Sandy clay loam",
+    [0.255, 0.255],
+    [0.148, 0.148],
+    9,
+    18.1,
+    RBS82,
+    [0.398, 0.33, 21.85, 0.15],
+  ),
   tx("clay-loam", "Clay loam", [0.318, 0.318], [0.197, 0.197], 9, 21.9, RBS82, [0.464, 0.309, 20.88, 0.1]),
-  tx("silty-clay-loam", "Silty clay loam", [0.3, 0.37], [0.17, 0.24], 9.5, 24.5, T19, [0.471, 0.432, 27.3, 0.1]),
+  tx(
+    "silty-clay-loam",
+    "Silty clay loam",
+    [0.3, 0.37],
+    [0.17, 0.24],
+    9.5,
+    24.5,
+    T19,
+    [0.471, 0.432, 27.3, 0.1],
+  ),
   tx("sandy-clay", "Sandy clay", [0.339, 0.339], [0.239, 0.239], 9, 21.9, RBS82, [0.43, 0.321, 23.9, 0.06]),
   tx("silty-clay", "Silty clay", [0.3, 0.42], [0.17, 0.29], 10, 25, T19_MEMORY, [0.479, 0.423, 29.22, 0.05]),
   tx("clay", "Clay", [0.32, 0.4], [0.2, 0.24], 10, 25.5, T19, [0.475, 0.385, 31.63, 0.03]),
@@ -143,7 +177,8 @@ export interface ResolvedSoil {
 /** Fills a {@link SoilSpec} from the texture library and checks it (θWP < θFC < porosity ≤ 1). */
 export function resolveSoil(spec: SoilSpec): ResolvedSoil {
   const tex = spec.texture ? findTexture(spec.texture) : undefined;
-  if (spec.texture && !tex) throw new WaterBalanceInputError("soil.texture", `unknown texture "${spec.texture}"`);
+  if (spec.texture && !tex)
+    throw new WaterBalanceInputError("soil.texture", `unknown texture "${spec.texture}"`);
   const thetaFc = spec.thetaFc ?? tex?.thetaFc;
   const thetaWp = spec.thetaWp ?? tex?.thetaWp;
   if (thetaFc === undefined || thetaWp === undefined) {
@@ -161,12 +196,22 @@ export function resolveSoil(spec: SoilSpec): ResolvedSoil {
     suctionMm: g1?.suctionMm ?? g0?.suctionMm,
     ksatMmH: g1?.ksatMmH ?? g0?.ksatMmH,
   };
-  if (ga.porosity !== undefined && ga.effectivePorosity !== undefined && ga.suctionMm !== undefined && ga.ksatMmH !== undefined) {
+  if (
+    ga.porosity !== undefined &&
+    ga.effectivePorosity !== undefined &&
+    ga.suctionMm !== undefined &&
+    ga.ksatMmH !== undefined
+  ) {
     requireRange("soil.greenAmpt.porosity", ga.porosity, 0.05, 0.9);
     requireRange("soil.greenAmpt.effectivePorosity", ga.effectivePorosity, 0.01, ga.porosity);
     requirePositive("soil.greenAmpt.suctionMm", ga.suctionMm);
     requirePositive("soil.greenAmpt.ksatMmH", ga.ksatMmH);
-    greenAmpt = { porosity: ga.porosity, effectivePorosity: ga.effectivePorosity, suctionMm: ga.suctionMm, ksatMmH: ga.ksatMmH };
+    greenAmpt = {
+      porosity: ga.porosity,
+      effectivePorosity: ga.effectivePorosity,
+      suctionMm: ga.suctionMm,
+      ksatMmH: ga.ksatMmH,
+    };
   }
   const tewMm = spec.tewMm ?? tex?.tewMm ?? 1000 * (thetaFc - 0.5 * thetaWp) * 0.1;
   const rewMm = Math.min(spec.rewMm ?? tex?.rewMm ?? 9, tewMm);

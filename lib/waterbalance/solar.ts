@@ -46,7 +46,12 @@ export function solarGeometry(latitudeDeg: number, doy: number): SolarGeometry {
   requireRange("doy", doy, 1, 366);
   const dr = inverseRelativeDistance(doy);
   const declinationRad = solarDeclinationRad(doy);
-  return { doy, dr, declinationRad, sunsetHourAngleRad: sunsetHourAngleRad((latitudeDeg * Math.PI) / 180, declinationRad) };
+  return {
+    doy,
+    dr,
+    declinationRad,
+    sunsetHourAngleRad: sunsetHourAngleRad((latitudeDeg * Math.PI) / 180, declinationRad),
+  };
 }
 
 /**
@@ -66,7 +71,8 @@ export function raFromGeometry(latitudeDeg: number, g: SolarGeometry): number {
     ((24 * 60) / Math.PI) *
     SOLAR_CONSTANT_MJ_M2_MIN *
     g.dr *
-    (ws * Math.sin(phi) * Math.sin(g.declinationRad) + Math.cos(phi) * Math.cos(g.declinationRad) * Math.sin(ws));
+    (ws * Math.sin(phi) * Math.sin(g.declinationRad) +
+      Math.cos(phi) * Math.cos(g.declinationRad) * Math.sin(ws));
   return Math.max(0, ra);
 }
 
@@ -131,19 +137,34 @@ export function cloudinessFactor(rsOverRso: number): number {
  * Net longwave radiation Rnl (MJ m⁻² d⁻¹), FAO-56 eq. 39:
  * Rnl = σ [(Tmax,K⁴ + Tmin,K⁴)/2] (0.34 − 0.14 √ea) (1.35 Rs/Rso − 0.35).
  */
-export function netLongwaveMJm2(tMaxC: number, tMinC: number, eaKPa: number, solarMJm2: number, clearSkyMJm2: number): number {
+export function netLongwaveMJm2(
+  tMaxC: number,
+  tMinC: number,
+  eaKPa: number,
+  solarMJm2: number,
+  clearSkyMJm2: number,
+): number {
   const tMaxK = tMaxC + 273.16;
   const tMinK = tMinC + 273.16;
   const tMax4 = tMaxK * tMaxK * tMaxK * tMaxK;
   const tMin4 = tMinK * tMinK * tMinK * tMinK;
   const ratio = clearSkyMJm2 > 0 ? solarMJm2 / clearSkyMJm2 : 1;
-  return STEFAN_BOLTZMANN_MJ_DAY * ((tMax4 + tMin4) / 2) * (0.34 - 0.14 * Math.sqrt(Math.max(0, eaKPa))) * cloudinessFactor(ratio);
+  return (
+    STEFAN_BOLTZMANN_MJ_DAY *
+    ((tMax4 + tMin4) / 2) *
+    (0.34 - 0.14 * Math.sqrt(Math.max(0, eaKPa))) *
+    cloudinessFactor(ratio)
+  );
 }
 
 /**
  * Monthly soil heat flux G (MJ m⁻² d⁻¹), FAO-56 eq. 43 (with next month) or eq. 44 (without):
  * G = 0.07 (T next − T previous), or 0.14 (T this − T previous). Daily G is taken as 0 (eq. 42).
  */
-export function monthlySoilHeatFluxMJm2(tPrevMonthC: number, tThisMonthC: number, tNextMonthC?: number): number {
+export function monthlySoilHeatFluxMJm2(
+  tPrevMonthC: number,
+  tThisMonthC: number,
+  tNextMonthC?: number,
+): number {
   return tNextMonthC === undefined ? 0.14 * (tThisMonthC - tPrevMonthC) : 0.07 * (tNextMonthC - tPrevMonthC);
 }

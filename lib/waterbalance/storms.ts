@@ -1,4 +1,12 @@
-import { float64Columns, scratchFloat64, SCRATCH_PIECE_DEPTH, SCRATCH_PIECE_END, SCRATCH_PIECE_START, SCRATCH_TIP_DEPTH, SCRATCH_TIP_MS } from "./arrays";
+import {
+  float64Columns,
+  scratchFloat64,
+  SCRATCH_PIECE_DEPTH,
+  SCRATCH_PIECE_END,
+  SCRATCH_PIECE_START,
+  SCRATCH_TIP_DEPTH,
+  SCRATCH_TIP_MS,
+} from "./arrays";
 import { requireNonNegative, requirePositive, WaterBalanceInputError } from "./errors";
 
 /**
@@ -54,7 +62,8 @@ export interface HyetographOptions {
 /** Epoch milliseconds of an instant given as ISO string or epoch ms; throws on an unreadable instant. */
 export function toEpochMs(at: string | number, field = "at"): number {
   const ms = typeof at === "number" ? at : Date.parse(at);
-  if (!Number.isFinite(ms)) throw new WaterBalanceInputError(field, `is not a readable instant (${String(at)})`);
+  if (!Number.isFinite(ms))
+    throw new WaterBalanceInputError(field, `is not a readable instant (${String(at)})`);
   return ms;
 }
 
@@ -65,7 +74,10 @@ export function toEpochMs(at: string | number, field = "at"): number {
  * `maxTipIntervalMin`. Logger intervals spread their depth evenly; overlaps are clipped.
  * @returns the columns and how many tips were dropped as switch bounce
  */
-export function hyetographColumns(records: readonly RainRecord[], options: HyetographOptions = {}): { hyetograph: HyetographColumns; droppedTips: number } {
+export function hyetographColumns(
+  records: readonly RainRecord[],
+  options: HyetographOptions = {},
+): { hyetograph: HyetographColumns; droppedTips: number } {
   const capMs = requirePositive("maxTipIntervalMin", options.maxTipIntervalMin ?? 60) * 60_000;
   const debounceMs = requireNonNegative("debounceMs", options.debounceMs ?? 1000);
   const m = records.length;
@@ -87,7 +99,11 @@ export function hyetographColumns(records: readonly RainRecord[], options: Hyeto
       tipDepth[nt] = depth;
       nt++;
     } else {
-      (intervals ??= []).push({ startMs: ms - requirePositive("intervalMin", r.intervalMin) * 60_000, endMs: ms, depthMm: depth });
+      (intervals ??= []).push({
+        startMs: ms - requirePositive("intervalMin", r.intervalMin) * 60_000,
+        endMs: ms,
+        depthMm: depth,
+      });
     }
   }
   if (!sorted) {
@@ -114,7 +130,11 @@ export function hyetographColumns(records: readonly RainRecord[], options: Hyeto
     kept++;
   }
   if (intervals === null) {
-    const [startMs, endMs, depthMm] = float64Columns(Math.max(1, kept), 3) as [Float64Array, Float64Array, Float64Array];
+    const [startMs, endMs, depthMm] = float64Columns(Math.max(1, kept), 3) as [
+      Float64Array,
+      Float64Array,
+      Float64Array,
+    ];
     writeTipPieces(tipMs, tipDepth, kept, capMs, startMs, endMs, depthMm, 0);
     return { hyetograph: { n: kept, startMs, endMs, depthMm }, droppedTips };
   }
@@ -164,7 +184,10 @@ function writeTipPieces(
 }
 
 /** Pieces into columns (given arrays, or reusable scratch when `target` is left out). */
-export function piecesToColumns(pieces: readonly HyetographPiece[], target?: Float64Array[]): HyetographColumns {
+export function piecesToColumns(
+  pieces: readonly HyetographPiece[],
+  target?: Float64Array[],
+): HyetographColumns {
   const n = pieces.length;
   const startMs = target?.[0] ?? scratchFloat64(SCRATCH_PIECE_START, n);
   const endMs = target?.[1] ?? scratchFloat64(SCRATCH_PIECE_END, n);
@@ -181,7 +204,8 @@ export function piecesToColumns(pieces: readonly HyetographPiece[], target?: Flo
 /** Columns `from`..`to` (exclusive) as piece objects. */
 export function columnsToPieces(h: HyetographColumns, from = 0, to = h.n): HyetographPiece[] {
   const out = new Array<HyetographPiece>(to - from);
-  for (let k = from; k < to; k++) out[k - from] = { startMs: h.startMs[k]!, endMs: h.endMs[k]!, depthMm: h.depthMm[k]! };
+  for (let k = from; k < to; k++)
+    out[k - from] = { startMs: h.startMs[k]!, endMs: h.endMs[k]!, depthMm: h.depthMm[k]! };
   return out;
 }
 
@@ -189,7 +213,10 @@ export function columnsToPieces(h: HyetographColumns, from = 0, to = h.n): Hyeto
  * Builds a hyetograph from time-stamped records, as piece objects (see {@link hyetographColumns}).
  * @returns pieces in time order, and how many tips were dropped as bounce
  */
-export function buildHyetograph(records: readonly RainRecord[], options: HyetographOptions = {}): { pieces: HyetographPiece[]; droppedTips: number } {
+export function buildHyetograph(
+  records: readonly RainRecord[],
+  options: HyetographOptions = {},
+): { pieces: HyetographPiece[]; droppedTips: number } {
   const { hyetograph, droppedTips } = hyetographColumns(records, options);
   return { pieces: columnsToPieces(hyetograph), droppedTips };
 }
@@ -216,7 +243,10 @@ export function stormBounds(h: HyetographColumns, dryGapH = 6): number[] {
 }
 
 /** Splits piece objects into storms at dry gaps of at least `dryGapH` hours (default 6). */
-export function separateStorms(pieces: readonly HyetographPiece[], options: { dryGapH?: number } = {}): Storm[] {
+export function separateStorms(
+  pieces: readonly HyetographPiece[],
+  options: { dryGapH?: number } = {},
+): Storm[] {
   const gapMs = requirePositive("dryGapH", options.dryGapH ?? 6) * 3_600_000;
   const storms: Storm[] = [];
   let cur: Storm | null = null;
@@ -233,7 +263,10 @@ export function separateStorms(pieces: readonly HyetographPiece[], options: { dr
 }
 
 /** Records to storms in one step ({@link buildHyetograph} then {@link separateStorms}). */
-export function stormsFromRecords(records: readonly RainRecord[], options: HyetographOptions & { dryGapH?: number } = {}): { storms: Storm[]; droppedTips: number } {
+export function stormsFromRecords(
+  records: readonly RainRecord[],
+  options: HyetographOptions & { dryGapH?: number } = {},
+): { storms: Storm[]; droppedTips: number } {
   const { pieces, droppedTips } = buildHyetograph(records, options);
   return { storms: separateStorms(pieces, options), droppedTips };
 }

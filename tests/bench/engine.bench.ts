@@ -44,7 +44,10 @@ const rnd = mulberry32(20261130);
 const dates = Array.from({ length: DAYS }, (_, d) => addDaysIso(START, d));
 
 /** Eight weather stations: where they stand, and a year of raw daily readings. */
-const stationSites = Array.from({ length: 8 }, (_, s) => ({ latitudeDeg: -27.5 + 0.1 * s, elevationM: 150 + 25 * s }));
+const stationSites = Array.from({ length: 8 }, (_, s) => ({
+  latitudeDeg: -27.5 + 0.1 * s,
+  elevationM: 150 + 25 * s,
+}));
 const stations = Array.from({ length: 8 }, (_, s) =>
   dates.map((date, d): DailyWeather => {
     const season = Math.cos(((d - 190) / 365) * 2 * Math.PI);
@@ -83,20 +86,36 @@ function makeField(f: number): FieldAccountInput {
     const date = dates[d]!;
     const mm = Math.round(50 * r() * r() * 10) / 10;
     if (recording && mm >= 2) {
-      rain.push({ date, kind: "records", records: stormRecords(date, Math.round(mm / 0.2), r), source: { kind: "own-gauge" } });
+      rain.push({
+        date,
+        kind: "records",
+        records: stormRecords(date, Math.round(mm / 0.2), r),
+        source: { kind: "own-gauge" },
+      });
     } else {
       rain.push({
         date,
         kind: "total",
         rainMm: mm,
-        source: { kind: "idw", gauges: [{ gaugeId: `g${f % 12}`, distanceKm: 1.5, weight: 0.6 }, { gaugeId: `g${(f + 1) % 12}`, distanceKm: 2.5, weight: 0.4 }] },
+        source: {
+          kind: "idw",
+          gauges: [
+            { gaugeId: `g${f % 12}`, distanceKm: 1.5, weight: 0.6 },
+            { gaugeId: `g${(f + 1) % 12}`, distanceKm: 2.5, weight: 0.4 },
+          ],
+        },
       });
     }
   }
   const irrigations = [];
-  for (let d = 20; d < DAYS; d += 9 + Math.floor(r() * 6)) irrigations.push({ date: dates[d]!, depthMm: 25 + 15 * r(), basis: "gross" as const });
+  for (let d = 20; d < DAYS; d += 9 + Math.floor(r() * 6))
+    irrigations.push({ date: dates[d]!, depthMm: 25 + 15 * r(), basis: "gross" as const });
   return {
-    field: { soil: { texture: texture.id }, areaHa: 5 + 60 * r(), runoff: { hydrologicSoilGroup: (["A", "B", "C", "D"] as const)[f % 4] } },
+    field: {
+      soil: { texture: texture.id },
+      areaHa: 5 + 60 * r(),
+      runoff: { hydrologicSoilGroup: (["A", "B", "C", "D"] as const)[f % 4] },
+    },
     planting: {
       plantingDate: dates[Math.floor(r() * 60)]!,
       kc: crop.kc,
@@ -149,7 +168,10 @@ function fmt(n: number): string {
 
 const farm = Array.from({ length: FIELDS }, (_, f) => makeField(f));
 const recordingFields = farm.filter((f) => f.rain.some((r) => r.kind === "records")).length;
-const tipsTotal = farm.reduce((s, f) => s + f.rain.reduce((t, r) => t + (r.kind === "records" ? r.records.length : 0), 0), 0);
+const tipsTotal = farm.reduce(
+  (s, f) => s + f.rain.reduce((t, r) => t + (r.kind === "records" ? r.records.length : 0), 0),
+  0,
+);
 
 // 1. whole-farm season recompute. ETo is computed once per station-day and shared by the fields on
 // that station (as the data layer does); the per-field variant is timed too, for comparison.
@@ -198,34 +220,36 @@ const loopInputs: BalanceLoopInput[] = prepared.map((c) => ({
 }));
 const out = createBalanceLoopOutput(DAYS);
 const LOOP_PASSES = 50;
-const loop = time(
-  () => {
-    for (let p = 0; p < LOOP_PASSES; p++) for (const li of loopInputs) checksum += balanceLoop(li, out);
-  },
-  5,
-);
+const loop = time(() => {
+  for (let p = 0; p < LOOP_PASSES; p++) for (const li of loopInputs) checksum += balanceLoop(li, out);
+}, 5);
 const loopFieldDays = loopInputs.length * DAYS * LOOP_PASSES;
 
 // 3. one Green-Ampt storm of 1,000 tips (hyetograph from tips, then infiltration with ponding)
 const tipRecords = stormRecords("2026-12-01", 1000, mulberry32(7));
 const loam = SOIL_TEXTURES.find((t) => t.id === "loam")!.greenAmpt;
 const STORM_REPS = 200;
-const storm = time(
-  () => {
-    for (let i = 0; i < STORM_REPS; i++) {
-      const { pieces } = buildHyetograph(tipRecords);
-      checksum += greenAmptStorm(pieces, loam, 0.2).runoffMm;
-    }
-  },
-  5,
-);
+const storm = time(() => {
+  for (let i = 0; i < STORM_REPS; i++) {
+    const { pieces } = buildHyetograph(tipRecords);
+    checksum += greenAmptStorm(pieces, loam, 0.2).runoffMm;
+  }
+}, 5);
 
 const ok = (pass: boolean) => (pass ? "meets target" : "MISSES target");
 const fieldDays = FIELDS * DAYS;
 const both = (t: Timing) => `${t.cpuMs.toFixed(0)} ms CPU (${t.wallMs.toFixed(0)} ms wall)`;
-console.log(`Rootbank engine benchmark — node ${process.version}, one JS thread; load average ${loadavg().map((x) => x.toFixed(1)).join(" ")}`);
-console.log(`farm: ${fmt(FIELDS)} fields x ${DAYS} days on ${stations.length} weather stations (raw readings, ETo by FAO-56); ${recordingFields} fields on a recording gauge (${fmt(tipsTotal)} tips through Green-Ampt); the rest by curve number`);
-console.log(`targets are judged on CPU time, the one-core figure; wall time suffers when other work shares the machine`);
+console.log(
+  `Rootbank engine benchmark — node ${process.version}, one JS thread; load average ${loadavg()
+    .map((x) => x.toFixed(1))
+    .join(" ")}`,
+);
+console.log(
+  `farm: ${fmt(FIELDS)} fields x ${DAYS} days on ${stations.length} weather stations (raw readings, ETo by FAO-56); ${recordingFields} fields on a recording gauge (${fmt(tipsTotal)} tips through Green-Ampt); the rest by curve number`,
+);
+console.log(
+  `targets are judged on CPU time, the one-core figure; wall time suffers when other work shares the machine`,
+);
 console.log(
   `1. whole-farm season recompute (ETo + runoff + balance), columns: ${both(seasonColumns)} = ${fmt(fieldDays / (seasonColumns.cpuMs / 1000))} field-days/s — target < 1000 ms: ${ok(seasonColumns.cpuMs < 1000)}`,
 );
@@ -236,7 +260,9 @@ console.log(
   `   columns again with ETo recomputed for every field (no sharing): ${both(seasonPerFieldEto)} = ${fmt(fieldDays / (seasonPerFieldEto.cpuMs / 1000))} field-days/s (for comparison)`,
 );
 const loopRate = loopFieldDays / (loop.cpuMs / 1000);
-console.log(`2. balance loop alone: ${fmt(loopRate)} field-days/s CPU (${fmt(loopFieldDays / (loop.wallMs / 1000))} wall) — target >= 5,000,000: ${ok(loopRate >= 5e6)}`);
+console.log(
+  `2. balance loop alone: ${fmt(loopRate)} field-days/s CPU (${fmt(loopFieldDays / (loop.wallMs / 1000))} wall) — target >= 5,000,000: ${ok(loopRate >= 5e6)}`,
+);
 console.log(
   `3. one Green-Ampt storm of 1,000 tips (tips to hyetograph + infiltration): ${((storm.cpuMs * 1000) / STORM_REPS).toFixed(0)} µs CPU (${((storm.wallMs * 1000) / STORM_REPS).toFixed(0)} µs wall) = ${fmt(STORM_REPS / (storm.cpuMs / 1000))} storms/s`,
 );

@@ -1,5 +1,11 @@
 import { describe, expect, it } from "vitest";
-import { addDaysIso, runFieldAccount, WaterBalanceInputError, type AccountDay, type FieldAccountInput } from "@/lib/waterbalance";
+import {
+  addDaysIso,
+  runFieldAccount,
+  WaterBalanceInputError,
+  type AccountDay,
+  type FieldAccountInput,
+} from "@/lib/waterbalance";
 import { plainField, rainTotal } from "./helpers";
 
 const day = (days: AccountDay[], date: string): AccountDay => {
@@ -34,7 +40,12 @@ describe("the daily balance, FAO-56 eq. 84-88, worked by hand", () => {
     expect(d1.deepPercolationMm).toBe(10);
     expect(d1.depletionEndMm).toBe(0);
     expect(d1.closure.closes).toBe(true);
-    expect(d1.provenance.rain).toEqual({ source: "own-gauge", gauges: [{ gaugeId: "g1", distanceKm: 0, weight: 1 }], missing: false, recorded: false });
+    expect(d1.provenance.rain).toEqual({
+      source: "own-gauge",
+      gauges: [{ gaugeId: "g1", distanceKm: 0, weight: 1 }],
+      missing: false,
+      recorded: false,
+    });
     expect(d1.provenance.runoff).toEqual({ method: "none" });
   });
 
@@ -101,7 +112,13 @@ describe("the daily balance, FAO-56 eq. 84-88, worked by hand", () => {
 
   it("roots grow from Zr min to Zr max and TAW with them", () => {
     const input = plainField({}, 40);
-    input.planting = { ...input.planting, plantingDate: "2026-11-01", rootDepthMinM: 0.2, rootDepthMaxM: 1.0, stages: { iniDays: 10, devDays: 11, midDays: 50, lateDays: 10 } };
+    input.planting = {
+      ...input.planting,
+      plantingDate: "2026-11-01",
+      rootDepthMinM: 0.2,
+      rootDepthMaxM: 1.0,
+      stages: { iniDays: 10, devDays: 11, midDays: 50, lateDays: 10 },
+    };
     const r = runFieldAccount(input);
     expect(r.days[0]!.rootDepthM).toBeCloseTo(0.2, 12);
     expect(r.days[0]!.tawMm).toBeCloseTo(30, 9);
@@ -120,7 +137,12 @@ describe("runoff inside the account", () => {
     // start Dr 45 of 150 = 0.30: average condition; S = 63.5, Ia = 12.7, Q = 37.3²/100.8 = 13.80 mm (NEH 630 ch. 10)
     expect(d1.runoffMm).toBeCloseTo((37.3 * 37.3) / 100.8, 9);
     expect(d1.effectiveRainMm).toBeCloseTo(50 - (37.3 * 37.3) / 100.8, 9);
-    expect(d1.provenance.runoff).toMatchObject({ method: "curve-number", condition: "average", curveNumber: 80, iaRatio: 0.2 });
+    expect(d1.provenance.runoff).toMatchObject({
+      method: "curve-number",
+      condition: "average",
+      curveNumber: 80,
+      iaRatio: 0.2,
+    });
     expect(d1.closure.closes).toBe(true);
   });
 
@@ -140,10 +162,23 @@ describe("runoff inside the account", () => {
     input.field = { soil: { texture: "loam" }, areaHa: 10 };
     input.planting = { ...input.planting, plantingDate: "2026-10-25" }; // initial stage: bare
     const burst = (startIso: string, tips: number, gapS: number) =>
-      Array.from({ length: tips }, (_, k) => ({ at: Date.parse(startIso) + (k + 1) * gapS * 1000, depthMm: 0.2 }));
+      Array.from({ length: tips }, (_, k) => ({
+        at: Date.parse(startIso) + (k + 1) * gapS * 1000,
+        depthMm: 0.2,
+      }));
     input.rain = [
-      { date: "2026-11-02", kind: "records", records: burst("2026-11-02T04:00:00Z", 150, 20), source: { kind: "own-gauge" } },
-      { date: "2026-11-04", kind: "records", records: burst("2026-11-04T04:00:00Z", 100, 30), source: { kind: "own-gauge" } },
+      {
+        date: "2026-11-02",
+        kind: "records",
+        records: burst("2026-11-02T04:00:00Z", 150, 20),
+        source: { kind: "own-gauge" },
+      },
+      {
+        date: "2026-11-04",
+        kind: "records",
+        records: burst("2026-11-04T04:00:00Z", 100, 30),
+        source: { kind: "own-gauge" },
+      },
     ];
     const r = runFieldAccount(input);
     const d1 = day(r.days, "2026-11-02");
@@ -183,7 +218,10 @@ describe("provenance", () => {
     ];
     const r = runFieldAccount(input);
     expect(r.days[0]!.provenance.eto).toEqual({ method: "penman-monteith", estimated: [] });
-    expect(r.days[1]!.provenance.eto).toEqual({ method: "hargreaves", estimated: ["solar", "humidity", "wind"] });
+    expect(r.days[1]!.provenance.eto).toEqual({
+      method: "hargreaves",
+      estimated: ["solar", "humidity", "wind"],
+    });
     expect(r.days[2]!.provenance.eto).toEqual({ method: "penman-monteith", estimated: ["humidity", "wind"] });
     expect(r.days[3]!.provenance.eto).toEqual({ method: "filled-mean", estimated: ["eto"] });
     expect(r.days[3]!.etoMm).toBeCloseTo((r.days[0]!.etoMm + r.days[1]!.etoMm + r.days[2]!.etoMm) / 3, 12);
@@ -193,7 +231,12 @@ describe("provenance", () => {
 describe("climate-adjusted Kc and the dual coefficient", () => {
   it("adjusts Kc mid from the mid-season weather (eq. 62)", () => {
     const input = plainField({}, 3);
-    input.planting = { ...input.planting, kc: { ini: 0.3, mid: 1.2, end: 0.35 }, heightM: 2, climateAdjust: { midWindMs: 3, midRhMinPct: 30 } };
+    input.planting = {
+      ...input.planting,
+      kc: { ini: 0.3, mid: 1.2, end: 0.35 },
+      heightM: 2,
+      climateAdjust: { midWindMs: 3, midRhMinPct: 30 },
+    };
     const r = runFieldAccount(input);
     expect(r.kcUsed.mid).toBeCloseTo(1.2885, 4); // FAO-56 eq. 62 recomputed (see crop-coefficient checks)
     expect(r.kcUsed.end).toBe(0.35); // eq. 65 applies only from 0.45
@@ -227,7 +270,11 @@ describe("bad input is a clear error", () => {
     ["end before start", { endDate: "2026-10-01" }, "endDate"],
     ["efficiency of zero", { system: { applicationEfficiency: 0 } }, "system.applicationEfficiency"],
     ["negative initial depletion", { initialDepletionMm: -1 }, "initialDepletionMm"],
-    ["two rain entries on one day", { rain: [rainTotal("2026-11-02", 1), rainTotal("2026-11-02", 2)] }, "rain"],
+    [
+      "two rain entries on one day",
+      { rain: [rainTotal("2026-11-02", 1), rainTotal("2026-11-02", 2)] },
+      "rain",
+    ],
     ["raw weather without a station", { weather: [{ date: "2026-11-01", tMaxC: 30, tMinC: 15 }] }, "station"],
     ["a malformed date", { startDate: "1/11/2026" }, "startDate"],
   ])("%s", (_name, overrides, field) => {

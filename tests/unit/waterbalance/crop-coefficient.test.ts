@@ -151,7 +151,12 @@ describe("crop library", () => {
     for (const c of CROP_LIBRARY) {
       expect(ids.has(c.id)).toBe(false);
       ids.add(c.id);
-      expect(c.sources).toEqual({ kc: "FAO-56 Table 12", kcb: "FAO-56 Table 17", stages: "FAO-56 Table 11", rootsAndP: "FAO-56 Table 22" });
+      expect(c.sources).toEqual({
+        kc: "FAO-56 Table 12",
+        kcb: "FAO-56 Table 17",
+        stages: "FAO-56 Table 11",
+        rootsAndP: "FAO-56 Table 22",
+      });
       expect(c.stagesRow.length).toBeGreaterThan(0);
       expect(c.kcb.mid).toBeLessThanOrEqual(c.kc.mid);
       expect(c.rootDepthMaxRangeM[0]).toBeLessThanOrEqual(c.rootDepthMaxRangeM[1]);

@@ -67,7 +67,10 @@ describe("Marshall-Palmer distribution", () => {
 
   it("has median volume diameter 3.67/Λ (exponential distribution, from memory)", () => {
     for (const r of [1, 10, 50]) {
-      expect(marshallPalmerSummary(r).medianVolumeDiameterMm).toBeCloseTo(3.67 / marshallPalmerLambdaPerMm(r), 2);
+      expect(marshallPalmerSummary(r).medianVolumeDiameterMm).toBeCloseTo(
+        3.67 / marshallPalmerLambdaPerMm(r),
+        2,
+      );
     }
   });
 
@@ -75,7 +78,10 @@ describe("Marshall-Palmer distribution", () => {
     const s = marshallPalmerSummary(25);
     expect(s.numberPerM3).toBeCloseTo(8000 / marshallPalmerLambdaPerMm(25), 0);
     // common practice, no source: a DSD-derived unit energy should sit near the fitted relations
-    const lo = Math.min(unitKineticEnergyMJhaMm(25, "brown-foster-1987"), unitKineticEnergyMJhaMm(25, "wischmeier-smith-1978"));
+    const lo = Math.min(
+      unitKineticEnergyMJhaMm(25, "brown-foster-1987"),
+      unitKineticEnergyMJhaMm(25, "wischmeier-smith-1978"),
+    );
     expect(s.unitEnergyMJhaMm).toBeGreaterThan(lo - 0.03);
     expect(s.unitEnergyMJhaMm).toBeLessThan(0.29);
   });

@@ -3,7 +3,10 @@ import { distanceKm, rainFromGauges, type GaugeReading } from "@/lib/waterbalanc
 
 const KM_LAT = 180 / (Math.PI * 6371); // degrees of latitude per km on a 6371 km sphere
 const field = { latitudeDeg: -27.5, longitudeDeg: 151.9 };
-const at = (kmNorth: number) => ({ latitudeDeg: field.latitudeDeg + kmNorth * KM_LAT, longitudeDeg: field.longitudeDeg });
+const at = (kmNorth: number) => ({
+  latitudeDeg: field.latitudeDeg + kmNorth * KM_LAT,
+  longitudeDeg: field.longitudeDeg,
+});
 
 describe("rain for a field without its own gauge", () => {
   const gauges: GaugeReading[] = [
@@ -34,7 +37,11 @@ describe("rain for a field without its own gauge", () => {
   });
 
   it("returns null when nothing is within the radius", () => {
-    expect(rainFromGauges(field, gauges, { radiusKm: 0.5 })).toEqual({ rainMm: null, method: "idw", gauges: [] });
+    expect(rainFromGauges(field, gauges, { radiusKm: 0.5 })).toEqual({
+      rainMm: null,
+      method: "idw",
+      gauges: [],
+    });
   });
 
   it("gives all the weight to a gauge on the field", () => {

@@ -1,7 +1,15 @@
 import { existsSync, mkdirSync, readFileSync, writeFileSync } from "node:fs";
 import path from "node:path";
 import { describe, expect, it } from "vitest";
-import { addDaysIso, findCrop, runFieldAccount, type AccountDay, type FieldAccountInput, type RainDayInput, type WeatherDayInput } from "@/lib/waterbalance";
+import {
+  addDaysIso,
+  findCrop,
+  runFieldAccount,
+  type AccountDay,
+  type FieldAccountInput,
+  type RainDayInput,
+  type WeatherDayInput,
+} from "@/lib/waterbalance";
 import { seededRandom } from "./helpers";
 
 /**
@@ -45,11 +53,26 @@ function season(seed: number, cropId: string, dual: boolean): FieldAccountInput 
       }
       rain.push({ date, kind: "records", records, source: { kind: "own-gauge" } });
     } else if (u < 0.18) {
-      rain.push({ date, kind: "total", rainMm: Math.round(60 * rnd() * rnd() * 10) / 10, source: { kind: "idw", gauges: [{ gaugeId: "g-north", distanceKm: 1.2, weight: 0.7 }, { gaugeId: "g-shed", distanceKm: 2.1, weight: 0.3 }] } });
+      rain.push({
+        date,
+        kind: "total",
+        rainMm: Math.round(60 * rnd() * rnd() * 10) / 10,
+        source: {
+          kind: "idw",
+          gauges: [
+            { gaugeId: "g-north", distanceKm: 1.2, weight: 0.7 },
+            { gaugeId: "g-shed", distanceKm: 2.1, weight: 0.3 },
+          ],
+        },
+      });
     }
   }
   return {
-    field: { soil: { texture: "loam" }, areaHa: 31.5, runoff: { hydrologicSoilGroup: "C", cover: "row-crop-straight-good" } },
+    field: {
+      soil: { texture: "loam" },
+      areaHa: 31.5,
+      runoff: { hydrologicSoilGroup: "C", cover: "row-crop-straight-good" },
+    },
     planting: {
       plantingDate: "2026-09-20",
       kc: crop.kc,
@@ -116,7 +139,7 @@ describe.each([
     if (UPDATE || !existsSync(file)) {
       if (!UPDATE) throw new Error(`missing golden fixture ${file}; run with UPDATE_GOLDEN=1`);
       mkdirSync(DIR, { recursive: true });
-      writeFileSync(file, JSON.stringify({ kcUsed: result.kcUsed, rows }, null, 1) + "\n");
+      writeFileSync(file, JSON.stringify({ kcUsed: result.kcUsed, rows }, null, 2) + "\n");
       return;
     }
     const golden = JSON.parse(readFileSync(file, "utf8")) as { rows: Row[] };

@@ -43,7 +43,11 @@ describe("Green-Ampt worked examples (Chow, Maidment and Mays 1988)", () => {
   });
 
   it("1 h of 5 cm/h rain: F = 3.02 cm after ponding at 0.17 h", () => {
-    const r = greenAmptStorm([{ startMs: 0, endMs: 3_600_000, depthMm: 50 }], { suctionMm: PSI, ksatMmH: K }, DTHETA);
+    const r = greenAmptStorm(
+      [{ startMs: 0, endMs: 3_600_000, depthMm: 50 }],
+      { suctionMm: PSI, ksatMmH: K },
+      DTHETA,
+    );
     expect(r.infiltrationMm / 10).toBeCloseTo(3.02, 2); // Chow et al. 1988 sec. 4.4 example, from memory
     expect((r.pondedAtMs ?? 0) / 3_600_000).toBeCloseTo(0.17, 2);
     expect(r.runoffMm).toBeCloseTo(50 - r.infiltrationMm, 12);

@@ -5,7 +5,11 @@ import { addDaysIso } from "@/lib/waterbalance";
  * A plain test field: θFC 0.30, θWP 0.15 (150 mm/m), roots fixed at 1 m (TAW 150 mm), Kc 1.0 all
  * season, p 0.5 (RAW 75 mm at ETc 5 mm/d), efficiency 0.8, no runoff unless asked.
  */
-export function plainField(overrides: Partial<FieldAccountInput> = {}, days = 10, etoMm = 5): FieldAccountInput {
+export function plainField(
+  overrides: Partial<FieldAccountInput> = {},
+  days = 10,
+  etoMm = 5,
+): FieldAccountInput {
   const startDate = "2026-11-01";
   const weather: WeatherDayInput[] = [];
   for (let d = 0; d < days; d++) weather.push({ date: addDaysIso(startDate, d), etoMm });
@@ -31,7 +35,12 @@ export function plainField(overrides: Partial<FieldAccountInput> = {}, days = 10
 
 /** A daily rain total for a date. */
 export function rainTotal(date: string, rainMm: number | null): RainDayInput {
-  return { date, kind: "total", rainMm, source: { kind: "own-gauge", gauges: [{ gaugeId: "g1", distanceKm: 0, weight: 1 }] } };
+  return {
+    date,
+    kind: "total",
+    rainMm,
+    source: { kind: "own-gauge", gauges: [{ gaugeId: "g1", distanceKm: 0, weight: 1 }] },
+  };
 }
 
 /** Mulberry32: a small seeded PRNG so generated seasons repeat. */

@@ -62,8 +62,12 @@ describe("season columns", () => {
     const eto = computeStationEto(weather, station, "2026-10-28", "2026-12-15");
     const viaSeries = runFieldAccount({ ...base, eto });
     const direct = runFieldAccount(base);
-    expect(viaSeries.days.map((d) => [d.etoMm, d.provenance.eto])).toEqual(direct.days.map((d) => [d.etoMm, d.provenance.eto]));
-    expect(() => runFieldAccount({ ...base, eto: computeStationEto(weather, station, "2026-11-05", "2026-11-20") })).toThrow(/does not cover/);
+    expect(viaSeries.days.map((d) => [d.etoMm, d.provenance.eto])).toEqual(
+      direct.days.map((d) => [d.etoMm, d.provenance.eto]),
+    );
+    expect(() =>
+      runFieldAccount({ ...base, eto: computeStationEto(weather, station, "2026-11-05", "2026-11-20") }),
+    ).toThrow(/does not cover/);
   });
 
   it("fills days without weather with the recent mean, and days before the first with the first days' mean", () => {
@@ -75,15 +79,28 @@ describe("season columns", () => {
     ];
     const r = runFieldAccount(input);
     expect(r.days.map((d) => d.etoMm)).toEqual([5, 5, 3, 5, 4, 7]);
-    expect(r.days.map((d) => d.provenance.eto.method)).toEqual(["filled-mean", "filled-mean", "given", "given", "filled-mean", "given"]);
+    expect(r.days.map((d) => d.provenance.eto.method)).toEqual([
+      "filled-mean",
+      "filled-mean",
+      "given",
+      "given",
+      "filled-mean",
+      "given",
+    ]);
   });
 });
 
 describe("hyetograph forms agree", () => {
-  const recordsArb = fc.array(fc.record({ gapS: fc.integer({ min: 0, max: 30_000 }), interval: fc.option(fc.integer({ min: 1, max: 30 }), { nil: undefined }) }), {
-    minLength: 1,
-    maxLength: 120,
-  });
+  const recordsArb = fc.array(
+    fc.record({
+      gapS: fc.integer({ min: 0, max: 30_000 }),
+      interval: fc.option(fc.integer({ min: 1, max: 30 }), { nil: undefined }),
+    }),
+    {
+      minLength: 1,
+      maxLength: 120,
+    },
+  );
 
   it("columns, pieces and storms describe the same rain", () => {
     fc.assert(
@@ -91,7 +108,9 @@ describe("hyetograph forms agree", () => {
         let t = Date.UTC(2026, 10, 1);
         const records = spec.map((s) => {
           t += s.gapS * 1000;
-          return s.interval === undefined ? { at: t, depthMm: 0.2 } : { at: t, depthMm: 1, intervalMin: s.interval };
+          return s.interval === undefined
+            ? { at: t, depthMm: 0.2 }
+            : { at: t, depthMm: 1, intervalMin: s.interval };
         });
         const { hyetograph } = hyetographColumns(records);
         const { pieces } = buildHyetograph(records);
@@ -99,7 +118,8 @@ describe("hyetograph forms agree", () => {
         const total = records.reduce((a, r) => a + r.depthMm, 0);
         const kept = pieces.reduce((a, p) => a + p.depthMm, 0);
         expect(kept).toBeLessThanOrEqual(total + 1e-9);
-        for (let k = 1; k < pieces.length; k++) expect(pieces[k]!.startMs).toBeGreaterThanOrEqual(pieces[k - 1]!.endMs);
+        for (let k = 1; k < pieces.length; k++)
+          expect(pieces[k]!.startMs).toBeGreaterThanOrEqual(pieces[k - 1]!.endMs);
         const storms = separateStorms(pieces, { dryGapH: gapH });
         const bounds = stormBounds(hyetograph, gapH);
         expect(bounds.length / 2).toBe(storms.length);
@@ -111,7 +131,14 @@ describe("hyetograph forms agree", () => {
   it("the O(n) 30-minute window matches a brute-force scan", () => {
     fc.assert(
       fc.property(
-        fc.array(fc.record({ gapS: fc.integer({ min: 0, max: 3600 }), durS: fc.integer({ min: 1, max: 3600 }), mm: fc.double({ min: 0, max: 20, noNaN: true }) }), { minLength: 1, maxLength: 25 }),
+        fc.array(
+          fc.record({
+            gapS: fc.integer({ min: 0, max: 3600 }),
+            durS: fc.integer({ min: 1, max: 3600 }),
+            mm: fc.double({ min: 0, max: 20, noNaN: true }),
+          }),
+          { minLength: 1, maxLength: 25 },
+        ),
         fc.integer({ min: 5, max: 60 }),
         (spec, windowMin) => {
           let t = 0;
@@ -121,7 +148,17 @@ describe("hyetograph forms agree", () => {
             t = piece.endMs;
             return piece;
           });
-          const cum = (x: number) => pieces.reduce((a, p) => a + (x <= p.startMs ? 0 : x >= p.endMs ? p.depthMm : (p.depthMm * (x - p.startMs)) / (p.endMs - p.startMs)), 0);
+          const cum = (x: number) =>
+            pieces.reduce(
+              (a, p) =>
+                a +
+                (x <= p.startMs
+                  ? 0
+                  : x >= p.endMs
+                    ? p.depthMm
+                    : (p.depthMm * (x - p.startMs)) / (p.endMs - p.startMs)),
+              0,
+            );
           const w = windowMin * 60_000;
           let brute = 0;
           const points = pieces.flatMap((p) => [p.startMs, p.endMs, p.startMs - w, p.endMs - w]);

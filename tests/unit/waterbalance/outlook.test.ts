@@ -1,5 +1,11 @@
 import { describe, expect, it } from "vitest";
-import { computeOutlook, irrigationDepths, planFarm, planFieldFromOutlook, type OutlookInput } from "@/lib/waterbalance";
+import {
+  computeOutlook,
+  irrigationDepths,
+  planFarm,
+  planFieldFromOutlook,
+  type OutlookInput,
+} from "@/lib/waterbalance";
 import { plainField } from "./helpers";
 
 function outlookInput(overrides: Partial<OutlookInput> = {}): OutlookInput {
@@ -87,7 +93,13 @@ describe("farm plan", () => {
   ];
 
   it("orders by urgency and reports the days capacity cannot keep up", () => {
-    const plan = planFarm({ startDate: "2026-11-11", days: 7, fields, capacities: [{ id: "pump", m3PerDay: 1000 }], leadDays: 0 });
+    const plan = planFarm({
+      startDate: "2026-11-11",
+      days: 7,
+      fields,
+      capacities: [{ id: "pump", m3PerDay: 1000 }],
+      leadDays: 0,
+    });
     expect(plan.notDue).toEqual(["D"]);
     expect(plan.irrigations.map((i) => [i.fieldId, i.rank, i.startDate, i.endDate, i.lateDays])).toEqual([
       ["A", 1, "2026-11-11", "2026-11-12", 1],
@@ -101,7 +113,13 @@ describe("farm plan", () => {
   });
 
   it("starts early within the lead days", () => {
-    const plan = planFarm({ startDate: "2026-11-11", days: 7, fields, capacities: [{ id: "pump", mmPerDay: 10, areaHa: 10 }], leadDays: 2 });
+    const plan = planFarm({
+      startDate: "2026-11-11",
+      days: 7,
+      fields,
+      capacities: [{ id: "pump", mmPerDay: 10, areaHa: 10 }],
+      leadDays: 2,
+    });
     const c = plan.irrigations.find((i) => i.fieldId === "C");
     expect(c?.startDate).toBe("2026-11-14");
     expect(c?.lateDays).toBe(0);
@@ -112,7 +130,13 @@ describe("farm plan", () => {
       startDate: "2026-11-11",
       days: 3,
       fields: [
-        { fieldId: "P1", areaHa: 10, dueDate: "2026-11-11", grossDepthMm: 10, capacityGroupIds: ["pump", "pivot-1"] },
+        {
+          fieldId: "P1",
+          areaHa: 10,
+          dueDate: "2026-11-11",
+          grossDepthMm: 10,
+          capacityGroupIds: ["pump", "pivot-1"],
+        },
         { fieldId: "P2", areaHa: 10, dueDate: "2026-11-11", grossDepthMm: 10, capacityGroupIds: ["pump"] },
       ],
       capacities: [
@@ -127,8 +151,23 @@ describe("farm plan", () => {
 
   it("builds plan entries from outlooks", () => {
     const f = plainField();
-    const o = computeOutlook({ field: f.field, planting: f.planting, system: f.system, fromDate: "2026-11-11", startDepletionMm: 60, days: 5, recentEtoMm: [5] });
+    const o = computeOutlook({
+      field: f.field,
+      planting: f.planting,
+      system: f.system,
+      fromDate: "2026-11-11",
+      startDepletionMm: 60,
+      days: 5,
+      recentEtoMm: [5],
+    });
     const p = planFieldFromOutlook("A", 10, o, ["pump"]);
-    expect(p).toEqual({ fieldId: "A", areaHa: 10, dueDate: "2026-11-13", grossDepthMm: 93.75, depletionFraction: 0.5, capacityGroupIds: ["pump"] });
+    expect(p).toEqual({
+      fieldId: "A",
+      areaHa: 10,
+      dueDate: "2026-11-13",
+      grossDepthMm: 93.75,
+      depletionFraction: 0.5,
+      capacityGroupIds: ["pump"],
+    });
   });
 });

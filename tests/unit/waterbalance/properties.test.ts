@@ -39,24 +39,57 @@ function seasonArb(opts: SeasonOptions): fc.Arbitrary<FieldAccountInput> {
       dual: opts.allowDual ? fc.boolean() : fc.constant(false),
       climate: fc.boolean(),
       eto: fc.array(fc.double({ min: 0, max: 12, noNaN: true }), { minLength: n, maxLength: n }),
-      rain: fc.array(fc.record({ day: fc.integer({ min: 0, max: n - 1 }), mm: fc.double({ min: 0, max: 150, noNaN: true }) }), { maxLength: 25 }),
-      records: opts.allowRecords ? fc.array(fc.record({ day: fc.integer({ min: 0, max: n - 1 }), storm }), { maxLength: 4 }) : fc.constant([]),
+      rain: fc.array(
+        fc.record({
+          day: fc.integer({ min: 0, max: n - 1 }),
+          mm: fc.double({ min: 0, max: 150, noNaN: true }),
+        }),
+        { maxLength: 25 },
+      ),
+      records: opts.allowRecords
+        ? fc.array(fc.record({ day: fc.integer({ min: 0, max: n - 1 }), storm }), { maxLength: 4 })
+        : fc.constant([]),
       irrigations: fc.array(
-        fc.record({ day: fc.integer({ min: 0, max: n - 1 }), mm: fc.double({ min: 0, max: 80, noNaN: true }), basis: fc.constantFrom("gross" as const, "net" as const) }),
+        fc.record({
+          day: fc.integer({ min: 0, max: n - 1 }),
+          mm: fc.double({ min: 0, max: 80, noNaN: true }),
+          basis: fc.constantFrom("gross" as const, "net" as const),
+        }),
         { maxLength: 10 },
       ),
-      checks: fc.array(fc.record({ day: fc.integer({ min: 0, max: n - 1 }), mm: fc.double({ min: 0, max: 300, noNaN: true }) }), { maxLength: 3 }),
-      cr: fc.array(fc.record({ day: fc.integer({ min: 0, max: n - 1 }), mm: fc.double({ min: 0, max: 3, noNaN: true }) }), { maxLength: 5 }),
+      checks: fc.array(
+        fc.record({
+          day: fc.integer({ min: 0, max: n - 1 }),
+          mm: fc.double({ min: 0, max: 300, noNaN: true }),
+        }),
+        { maxLength: 3 },
+      ),
+      cr: fc.array(
+        fc.record({
+          day: fc.integer({ min: 0, max: n - 1 }),
+          mm: fc.double({ min: 0, max: 3, noNaN: true }),
+        }),
+        { maxLength: 5 },
+      ),
       initial: fc.double({ min: 0, max: 250, noNaN: true }),
       efficiency: fc.double({ min: 0.3, max: 1, noNaN: true }),
       cn: fc.option(fc.integer({ min: 50, max: 98 }), { nil: undefined }),
-      antecedent: opts.runoff === "any" ? fc.constantFrom("account" as const, "dry" as const, "average" as const, "wet" as const) : fc.constantFrom("dry" as const, "average" as const, "wet" as const),
+      antecedent:
+        opts.runoff === "any"
+          ? fc.constantFrom("account" as const, "dry" as const, "average" as const, "wet" as const)
+          : fc.constantFrom("dry" as const, "average" as const, "wet" as const),
       iaRatio: fc.constantFrom(0.2 as const, 0.05 as const),
     })
     .map((g) => {
       const rainByDay = new Map<number, RainDayInput>();
       for (const r of g.rain) {
-        if (r.day < g.days) rainByDay.set(r.day, { date: addDaysIso(START, r.day), kind: "total", rainMm: r.mm, source: { kind: "own-gauge" } });
+        if (r.day < g.days)
+          rainByDay.set(r.day, {
+            date: addDaysIso(START, r.day),
+            kind: "total",
+            rainMm: r.mm,
+            source: { kind: "own-gauge" },
+          });
       }
       for (const r of g.records) {
         if (r.day >= g.days) continue;
@@ -65,14 +98,22 @@ function seasonArb(opts: SeasonOptions): fc.Arbitrary<FieldAccountInput> {
           t += s * 1000;
           return { at: t, depthMm: 0.2 };
         });
-        rainByDay.set(r.day, { date: addDaysIso(START, r.day), kind: "records", records, source: { kind: "own-gauge" } });
+        rainByDay.set(r.day, {
+          date: addDaysIso(START, r.day),
+          kind: "records",
+          records,
+          source: { kind: "own-gauge" },
+        });
       }
       const crop = g.crop;
       const input: FieldAccountInput = {
         field: {
           soil: { texture: g.texture },
           areaHa: 12,
-          runoff: g.cn === undefined ? { dailyMethod: "none" } : { curveNumber: g.cn, antecedent: g.antecedent, iaRatio: g.iaRatio },
+          runoff:
+            g.cn === undefined
+              ? { dailyMethod: "none" }
+              : { curveNumber: g.cn, antecedent: g.antecedent, iaRatio: g.iaRatio },
         },
         planting: {
           plantingDate: addDaysIso(START, g.plantingOffset),
@@ -88,9 +129,15 @@ function seasonArb(opts: SeasonOptions): fc.Arbitrary<FieldAccountInput> {
         system: { applicationEfficiency: g.efficiency, wettedFraction: 0.6 },
         weather: g.eto.slice(0, g.days).map((etoMm, d) => ({ date: addDaysIso(START, d), etoMm })),
         rain: [...rainByDay.values()],
-        irrigations: g.irrigations.filter((i) => i.day < g.days).map((i) => ({ date: addDaysIso(START, i.day), depthMm: i.mm, basis: i.basis })),
-        soilChecks: g.checks.filter((c) => c.day < g.days).map((c) => ({ date: addDaysIso(START, c.day), depletionMm: c.mm })),
-        capillaryRise: g.cr.filter((c) => c.day < g.days).map((c) => ({ date: addDaysIso(START, c.day), capillaryRiseMm: c.mm })),
+        irrigations: g.irrigations
+          .filter((i) => i.day < g.days)
+          .map((i) => ({ date: addDaysIso(START, i.day), depthMm: i.mm, basis: i.basis })),
+        soilChecks: g.checks
+          .filter((c) => c.day < g.days)
+          .map((c) => ({ date: addDaysIso(START, c.day), depletionMm: c.mm })),
+        capillaryRise: g.cr
+          .filter((c) => c.day < g.days)
+          .map((c) => ({ date: addDaysIso(START, c.day), capillaryRiseMm: c.mm })),
         startDate: START,
         endDate: addDaysIso(START, g.days - 1),
         initialDepletionMm: g.initial,
@@ -140,11 +187,18 @@ describe("the balance on random seasons", () => {
           const rain = input.rain.filter((r) => r.date !== date);
           const existing = input.rain.find((r) => r.date === date);
           const before = existing && existing.kind === "total" ? (existing.rainMm ?? 0) : 0;
-          const wetter: FieldAccountInput = { ...input, rain: [...rain, { date, kind: "total", rainMm: before + extraMm }] };
-          const drier: FieldAccountInput = { ...input, rain: [...rain, { date, kind: "total", rainMm: before }] };
+          const wetter: FieldAccountInput = {
+            ...input,
+            rain: [...rain, { date, kind: "total", rainMm: before + extraMm }],
+          };
+          const drier: FieldAccountInput = {
+            ...input,
+            rain: [...rain, { date, kind: "total", rainMm: before }],
+          };
           const a = runFieldAccount(drier).days;
           const b = runFieldAccount(wetter).days;
-          for (let d = 0; d < n; d++) expect(b[d]!.depletionEndMm).toBeLessThanOrEqual(a[d]!.depletionEndMm + 1e-9);
+          for (let d = 0; d < n; d++)
+            expect(b[d]!.depletionEndMm).toBeLessThanOrEqual(a[d]!.depletionEndMm + 1e-9);
         },
       ),
       { numRuns: 150 },
@@ -167,8 +221,16 @@ describe("runoff methods", () => {
         fc.double({ min: 0.05, max: 24, noNaN: true }),
         fc.double({ min: 1, max: 20, noNaN: true }),
         (ga, dTheta, totalMm, durH, speedUp) => {
-          const slow = greenAmptStorm([{ startMs: 0, endMs: durH * 3_600_000, depthMm: totalMm }], ga, dTheta);
-          const fast = greenAmptStorm([{ startMs: 0, endMs: (durH / speedUp) * 3_600_000, depthMm: totalMm }], ga, dTheta);
+          const slow = greenAmptStorm(
+            [{ startMs: 0, endMs: durH * 3_600_000, depthMm: totalMm }],
+            ga,
+            dTheta,
+          );
+          const fast = greenAmptStorm(
+            [{ startMs: 0, endMs: (durH / speedUp) * 3_600_000, depthMm: totalMm }],
+            ga,
+            dTheta,
+          );
           expect(fast.runoffMm).toBeGreaterThanOrEqual(slow.runoffMm - 1e-9);
         },
       ),
@@ -180,7 +242,14 @@ describe("runoff methods", () => {
       fc.property(
         gaParams,
         fc.double({ min: 0.01, max: 0.4, noNaN: true }),
-        fc.array(fc.record({ gapS: fc.integer({ min: 0, max: 3600 }), durS: fc.integer({ min: 5, max: 3600 }), mm: fc.double({ min: 0.01, max: 15, noNaN: true }) }), { minLength: 1, maxLength: 60 }),
+        fc.array(
+          fc.record({
+            gapS: fc.integer({ min: 0, max: 3600 }),
+            durS: fc.integer({ min: 5, max: 3600 }),
+            mm: fc.double({ min: 0.01, max: 15, noNaN: true }),
+          }),
+          { minLength: 1, maxLength: 60 },
+        ),
         fc.double({ min: 1, max: 10, noNaN: true }),
         (ga, dTheta, shape, k) => {
           const build = (scale: number): HyetographPiece[] => {
@@ -205,7 +274,13 @@ describe("runoff methods", () => {
       fc.property(
         gaParams,
         fc.double({ min: 0.01, max: 0.4, noNaN: true }),
-        fc.array(fc.record({ durS: fc.integer({ min: 5, max: 3600 }), mm: fc.double({ min: 0, max: 15, noNaN: true }) }), { minLength: 1, maxLength: 60 }),
+        fc.array(
+          fc.record({
+            durS: fc.integer({ min: 5, max: 3600 }),
+            mm: fc.double({ min: 0, max: 15, noNaN: true }),
+          }),
+          { minLength: 1, maxLength: 60 },
+        ),
         fc.nat(),
         fc.double({ min: 0, max: 20, noNaN: true }),
         (ga, dTheta, shape, pick, extra) => {
@@ -263,7 +338,14 @@ describe("reference ET", () => {
           const ra = extraterrestrialRadiationMJm2(lat, doy);
           fc.pre(ra >= 30);
           const date = addDaysIso("2025-01-01", doy - 1);
-          const base = { date, tMaxC: Math.min(45, tMin + range), tMinC: tMin, rhMaxPct: rhMax, rhMinPct: rhMax * rhMinFrac, windMs: wind };
+          const base = {
+            date,
+            tMaxC: Math.min(45, tMin + range),
+            tMinC: tMin,
+            rhMaxPct: rhMax,
+            rhMinPct: rhMax * rhMinFrac,
+            windMs: wind,
+          };
           const site = { latitudeDeg: lat, elevationM: z };
           const rs = rsFrac * 0.75 * ra;
           const a = referenceEtDaily({ ...base, solarMJm2: rs }, site);

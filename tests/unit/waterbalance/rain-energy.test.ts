@@ -1,8 +1,18 @@
 import { describe, expect, it } from "vitest";
-import { maxDepthInWindowMm, stormEnergy, surfaceSealing, unitKineticEnergyMJhaMm, type HyetographPiece } from "@/lib/waterbalance";
+import {
+  maxDepthInWindowMm,
+  stormEnergy,
+  surfaceSealing,
+  unitKineticEnergyMJhaMm,
+  type HyetographPiece,
+} from "@/lib/waterbalance";
 
 const H = 3_600_000;
-const piece = (startH: number, endH: number, depthMm: number): HyetographPiece => ({ startMs: startH * H, endMs: endH * H, depthMm });
+const piece = (startH: number, endH: number, depthMm: number): HyetographPiece => ({
+  startMs: startH * H,
+  endMs: endH * H,
+  depthMm,
+});
 
 describe("unit kinetic energy", () => {
   it("at 25 mm/h matches each named formula", () => {
@@ -54,6 +64,9 @@ describe("surface sealing", () => {
     expect(surfaceSealing(big, true)).toEqual({ ksatFactor: 0.5, days: 7 }); // defaults: common practice, no source
     expect(surfaceSealing(big, false)).toBeNull();
     expect(surfaceSealing({ energyMJha: 1 }, true)).toBeNull();
-    expect(surfaceSealing(big, true, { ksatFactor: 0.3, days: 3, energyThresholdMJha: 5 })).toEqual({ ksatFactor: 0.3, days: 3 });
+    expect(surfaceSealing(big, true, { ksatFactor: 0.3, days: 3, energyThresholdMJha: 5 })).toEqual({
+      ksatFactor: 0.3,
+      days: 3,
+    });
   });
 });

@@ -1,5 +1,10 @@
 import { describe, expect, it } from "vitest";
-import { degMinToDecimal, referenceEtHourly, seasonalCorrectionHours, type HourlySite } from "@/lib/waterbalance";
+import {
+  degMinToDecimal,
+  referenceEtHourly,
+  seasonalCorrectionHours,
+  type HourlySite,
+} from "@/lib/waterbalance";
 
 function printed(actual: number, expected: number, decimals: number): void {
   expect(Math.abs(actual - expected)).toBeLessThanOrEqual(0.5 * 10 ** -decimals + 1e-12);
@@ -7,10 +12,18 @@ function printed(actual: number, expected: number, decimals: number): void {
 
 describe("FAO-56 Example 19: hourly ETo at N'Diaye, Senegal, 1 October", () => {
   // 16°13'N, 16°15'W, 8 m; Lz = 15°W, i.e. standard time UTC−1
-  const site: HourlySite = { latitudeDeg: degMinToDecimal(16, 13), longitudeDeg: -degMinToDecimal(16, 15), elevationM: 8, utcOffsetHours: -1 };
+  const site: HourlySite = {
+    latitudeDeg: degMinToDecimal(16, 13),
+    longitudeDeg: -degMinToDecimal(16, 15),
+    elevationM: 8,
+    utcOffsetHours: -1,
+  };
 
   it("14-15 h: ETo 0.63 mm/h with the printed intermediates", () => {
-    const r = referenceEtHourly({ date: "2026-10-01", standardHourMid: 14.5, tempC: 38, rhPct: 52, windMs: 3.3, solarMJm2: 2.45 }, site);
+    const r = referenceEtHourly(
+      { date: "2026-10-01", standardHourMid: 14.5, tempC: 38, rhPct: 52, windMs: 3.3, solarMJm2: 2.45 },
+      site,
+    );
     expect(r.daytime).toBe(true);
     expect(r.doy).toBe(274); // FAO-56 Example 19
     printed(seasonalCorrectionHours(274), 0.1889, 3); // FAO-56 Example 19 (printed 0.1889; recomputed 0.189)
@@ -30,7 +43,10 @@ describe("FAO-56 Example 19: hourly ETo at N'Diaye, Senegal, 1 October", () => {
   });
 
   it("02-03 h: ETo 0.00 mm/h", () => {
-    const r = referenceEtHourly({ date: "2026-10-01", standardHourMid: 2.5, tempC: 28, rhPct: 90, windMs: 1.9, solarMJm2: 0 }, site);
+    const r = referenceEtHourly(
+      { date: "2026-10-01", standardHourMid: 2.5, tempC: 28, rhPct: 90, windMs: 1.9, solarMJm2: 0 },
+      site,
+    );
     expect(r.daytime).toBe(false);
     expect(r.raMJm2).toBe(0);
     printed(r.eSatKPa, 3.78, 3); // FAO-56 Example 19
@@ -42,6 +58,11 @@ describe("FAO-56 Example 19: hourly ETo at N'Diaye, Senegal, 1 October", () => {
   });
 
   it("rejects humidity above 100 %", () => {
-    expect(() => referenceEtHourly({ date: "2026-10-01", standardHourMid: 2.5, tempC: 28, rhPct: 120, windMs: 1.9, solarMJm2: 0 }, site)).toThrow(/rhPct/);
+    expect(() =>
+      referenceEtHourly(
+        { date: "2026-10-01", standardHourMid: 2.5, tempC: 28, rhPct: 120, windMs: 1.9, solarMJm2: 0 },
+        site,
+      ),
+    ).toThrow(/rhPct/);
   });
 });

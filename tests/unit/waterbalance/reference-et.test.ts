@@ -147,7 +147,15 @@ describe("FAO-56 Example 17: monthly ETo at Bangkok in April", () => {
   // n 8.5 h, mean T March 29.2 / April 30.2 °C (G by eq. 44) -> ETo 5.72 mm/day
   it("reproduces the printed terms and ETo", () => {
     const r = referenceEtDaily(
-      { date: "2026-04-15", tMaxC: 34.8, tMinC: 25.6, eaKPa: 2.85, windMs: 2, sunshineHours: 8.5, soilHeatFluxMJm2: monthlySoilHeatFluxMJm2(29.2, 30.2) },
+      {
+        date: "2026-04-15",
+        tMaxC: 34.8,
+        tMinC: 25.6,
+        eaKPa: 2.85,
+        windMs: 2,
+        sunshineHours: 8.5,
+        soilHeatFluxMJm2: monthlySoilHeatFluxMJm2(29.2, 30.2),
+      },
       { latitudeDeg: degMinToDecimal(13, 44), elevationM: 2 },
     );
     if (r.method !== "penman-monteith") throw new Error("expected Penman-Monteith");
@@ -160,7 +168,15 @@ describe("FAO-56 Example 17: monthly ETo at Bangkok in April", () => {
 
 describe("missing data (FAO-56 chapter 3)", () => {
   const site: StationSite = { latitudeDeg: degMinToDecimal(50, 48), elevationM: 100 };
-  const full: DailyWeather = { date: "2026-07-06", tMaxC: 21.5, tMinC: 12.3, rhMaxPct: 84, rhMinPct: 63, windMs: 2.078, solarMJm2: 22.07 };
+  const full: DailyWeather = {
+    date: "2026-07-06",
+    tMaxC: 21.5,
+    tMinC: 12.3,
+    rhMaxPct: 84,
+    rhMinPct: 63,
+    windMs: 2.078,
+    solarMJm2: 22.07,
+  };
 
   it("estimates ea from Tmin when humidity is missing and says so", () => {
     const r = referenceEtDaily({ ...full, rhMaxPct: undefined, rhMinPct: undefined }, site);
@@ -194,7 +210,9 @@ describe("missing data (FAO-56 chapter 3)", () => {
   });
 
   it("can run Penman-Monteith with every estimate instead of Hargreaves", () => {
-    const r = referenceEtDaily({ date: "2026-07-06", tMaxC: 21.5, tMinC: 12.3 }, site, { temperatureOnly: "penman-monteith" });
+    const r = referenceEtDaily({ date: "2026-07-06", tMaxC: 21.5, tMinC: 12.3 }, site, {
+      temperatureOnly: "penman-monteith",
+    });
     expect(r.method).toBe("penman-monteith");
     expect(r.estimated).toEqual(["solar", "humidity", "wind"]);
   });

@@ -1,5 +1,12 @@
 import { describe, expect, it } from "vitest";
-import { findTexture, readilyAvailableWaterMm, resolveSoil, SOIL_TEXTURES, totalAvailableWaterMm, WaterBalanceInputError } from "@/lib/waterbalance";
+import {
+  findTexture,
+  readilyAvailableWaterMm,
+  resolveSoil,
+  SOIL_TEXTURES,
+  totalAvailableWaterMm,
+  WaterBalanceInputError,
+} from "@/lib/waterbalance";
 
 describe("TAW and RAW, FAO-56 eq. 82-83", () => {
   it("computes TAW from θFC, θWP and root depth", () => {

@@ -57,7 +57,13 @@ describe("tips to a hyetograph", () => {
 });
 
 describe("storm separation", () => {
-  const records = [tip(T0), tip(T0 + 5 * MIN), tip(T0 + 5 * 60 * MIN), tip(T0 + 12 * 60 * MIN), tip(T0 + 12 * 60 * MIN + 2 * MIN)];
+  const records = [
+    tip(T0),
+    tip(T0 + 5 * MIN),
+    tip(T0 + 5 * 60 * MIN),
+    tip(T0 + 12 * 60 * MIN),
+    tip(T0 + 12 * 60 * MIN + 2 * MIN),
+  ];
   it("splits at a dry gap of 6 h by default", () => {
     const { storms } = stormsFromRecords(records);
     expect(storms.map((s) => s.pieces.length)).toEqual([3, 2]);
@@ -96,7 +102,12 @@ describe("the reading-day rule", () => {
 
   it("groups records into account days with the same boundary", () => {
     const nine = Date.UTC(2026, 10, 29, 23, 0, 0);
-    const recs = [tip(nine - 60_000), tip(nine), tip(nine + 60_000), { at: nine + 2 * 3_600_000, depthMm: 1.5, intervalMin: 60 }];
+    const recs = [
+      tip(nine - 60_000),
+      tip(nine),
+      tip(nine + 60_000),
+      { at: nine + 2 * 3_600_000, depthMm: 1.5, intervalMin: 60 },
+    ];
     const groups = groupRecordsByAccountDay(recs, "Australia/Brisbane", 9);
     expect(groups.map((g) => [g.date, Math.round(g.rainMm * 10) / 10, g.records.length])).toEqual([
       ["2026-11-29", 0.4, 2],
