@@ -117,7 +117,7 @@ export function FieldsSection({
       />
       {mode === "draw" && !shape && <p className="font-bold">Tap the corners of the field on the map, then tap the first corner again to close the outline.</p>}
       {mode === "edit" && !shape && <p className="font-bold">Drag the corners of {selected?.name}; drag a middle marker to add a corner.</p>}
-      {shape && (
+      {shape && !editing && (
         <div className="flex flex-wrap items-center gap-2 rounded-xl bg-paper p-3 ring-1 ring-river-100">
           <p className="flex-1" data-testid="pending-area">
             New outline: about {shapeHa?.toFixed(2)} ha (the saved area is computed on the server).
