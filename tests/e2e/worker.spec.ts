@@ -20,7 +20,8 @@ const isoDay = (d: Date) => d.toISOString().slice(0, 10);
 const addDays = (iso: string, n: number) => isoDay(new Date(Date.parse(`${iso}T00:00:00Z`) + n * 86_400_000));
 
 async function api<T>(page: Page, url: string): Promise<T> {
-  const res = await page.request.get(url);
+  // A dev server under load sometimes drops a kept-alive connection: one more try is not a retry of the check.
+  const res = await page.request.get(url).catch(() => page.request.get(url));
   expect(res.status(), url).toBe(200);
   return (await res.json()) as T;
 }
