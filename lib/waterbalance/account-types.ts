@@ -125,6 +125,7 @@ export interface RainDayRecords {
   source?: RainSource;
 }
 
+/** A day's rain: a daily total, or the time-stamped record of the account day. */
 export type RainDayInput = RainDayTotal | RainDayRecords;
 
 /** An irrigation as logged: gross depth (at the outlet) or net depth (into the root zone). */

@@ -51,10 +51,13 @@ export function scratchFloat64(slot: number, minLength: number): Float64Array {
   return next;
 }
 
-/** Scratch slots in use, so no two users share one. */
+/** Scratch slot: tip instants while a record is parsed (storms.ts). */
 export const SCRATCH_TIP_MS = 0;
+/** Scratch slot: tip depths while a record is parsed (storms.ts). */
 export const SCRATCH_TIP_DEPTH = 1;
+/** Scratch slot: running depth for the window search (rain-energy.ts). */
 export const SCRATCH_CUMULATIVE = 2;
+/** Scratch slots: piece objects copied into columns (storms.ts piecesToScratchColumns). */
 export const SCRATCH_PIECE_START = 3;
 export const SCRATCH_PIECE_END = 4;
 export const SCRATCH_PIECE_DEPTH = 5;

@@ -11,9 +11,11 @@
 
 import { float64Columns, uint8Columns } from "./arrays";
 
-/** Runoff method of a day in {@link BalanceLoopInput.runoffKind}. */
+/** Runoff method of a day in {@link BalanceLoopInput.runoffKind}: all rain counts. */
 export const RUNOFF_NONE = 0;
+/** Runoff method: NRCS curve number on the daily total, condition from the start depletion. */
 export const RUNOFF_CURVE_NUMBER = 1;
+/** Runoff method: the `stormRunoff` hook (Green-Ampt on the day's time-stamped record). */
 export const RUNOFF_STORM = 2;
 
 /** Curve-number settings for the loop: retention S (mm) per antecedent condition and λ. */

@@ -1,6 +1,6 @@
 import { requireNonNegative, requirePositive } from "./errors";
 import type { GreenAmptParams } from "./soils";
-import { piecesToColumns, type HyetographColumns, type HyetographPiece } from "./storms";
+import { piecesToScratchColumns, type HyetographColumns, type HyetographPiece } from "./storms";
 
 /**
  * Green-Ampt infiltration (Green and Ampt 1911) with ponding time under unsteady rain (Mein and
@@ -117,7 +117,7 @@ export function greenAmptStorm(
   deltaTheta: number,
   options: { ksatFactor?: number } = {},
 ): GreenAmptStormResult {
-  const h = piecesToColumns(pieces);
+  const h = piecesToScratchColumns(pieces);
   return greenAmptColumns(h, 0, h.n, params, deltaTheta, options);
 }
 

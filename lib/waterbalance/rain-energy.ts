@@ -1,6 +1,6 @@
 import { scratchFloat64, SCRATCH_CUMULATIVE } from "./arrays";
 import { requireNonNegative } from "./errors";
-import { piecesToColumns, type HyetographColumns, type HyetographPiece } from "./storms";
+import { piecesToScratchColumns, type HyetographColumns, type HyetographPiece } from "./storms";
 
 /** Rain kinetic energy and erosivity from the intensity record: unit energy, storm energy, I30, EI30. */
 
@@ -39,7 +39,7 @@ export function unitKineticEnergyMJhaMm(
  * swept with a forward pointer, O(n).
  */
 export function maxDepthInWindowMm(pieces: readonly HyetographPiece[], windowMin: number): number {
-  const h = piecesToColumns(pieces);
+  const h = piecesToScratchColumns(pieces);
   const cum = cumulative(h, 0, h.n);
   return maxWindow(h, 0, h.n, cum, windowMin * 60_000);
 }
@@ -108,7 +108,7 @@ export function stormEnergy(
   pieces: readonly HyetographPiece[],
   method: KineticEnergyMethod = "mcgregor-1995",
 ): StormEnergy {
-  const h = piecesToColumns(pieces);
+  const h = piecesToScratchColumns(pieces);
   return stormEnergyColumns(h, 0, h.n, method);
 }
 

@@ -18,6 +18,7 @@ export interface GreenAmptParams {
   ksatMmH: number;
 }
 
+/** Texture classes of the library (USDA names, kebab-case). */
 export type TextureId =
   | "sand"
   | "loamy-sand"

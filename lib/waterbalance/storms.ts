@@ -157,7 +157,7 @@ export function hyetographColumns(
     }
     merged.push({ startMs: p.startMs, endMs: p.endMs, depthMm: p.depthMm });
   }
-  return { hyetograph: piecesToColumns(merged, float64Columns(Math.max(1, merged.length), 3)), droppedTips };
+  return { hyetograph: piecesToColumns(merged), droppedTips };
 }
 
 function writeTipPieces(
@@ -183,15 +183,29 @@ function writeTipPieces(
   }
 }
 
-/** Pieces into columns (given arrays, or reusable scratch when `target` is left out). */
-export function piecesToColumns(
-  pieces: readonly HyetographPiece[],
-  target?: Float64Array[],
-): HyetographColumns {
+/** Piece objects into fresh columns. */
+export function piecesToColumns(pieces: readonly HyetographPiece[]): HyetographColumns {
+  return fillColumns(pieces, float64Columns(Math.max(1, pieces.length), 3));
+}
+
+/**
+ * Piece objects into the module's reusable scratch columns, for a wrapper that uses them at once and
+ * lets go (the next call overwrites them).
+ */
+export function piecesToScratchColumns(pieces: readonly HyetographPiece[]): HyetographColumns {
   const n = pieces.length;
-  const startMs = target?.[0] ?? scratchFloat64(SCRATCH_PIECE_START, n);
-  const endMs = target?.[1] ?? scratchFloat64(SCRATCH_PIECE_END, n);
-  const depthMm = target?.[2] ?? scratchFloat64(SCRATCH_PIECE_DEPTH, n);
+  return fillColumns(pieces, [
+    scratchFloat64(SCRATCH_PIECE_START, n),
+    scratchFloat64(SCRATCH_PIECE_END, n),
+    scratchFloat64(SCRATCH_PIECE_DEPTH, n),
+  ]);
+}
+
+function fillColumns(pieces: readonly HyetographPiece[], target: Float64Array[]): HyetographColumns {
+  const n = pieces.length;
+  const startMs = target[0]!;
+  const endMs = target[1]!;
+  const depthMm = target[2]!;
   for (let k = 0; k < n; k++) {
     const p = pieces[k]!;
     startMs[k] = p.startMs;
