@@ -276,18 +276,21 @@ export interface FieldStatusRow {
 }
 
 /**
- * Every live field of a farm with its latest stored day and the mean crop ET of the week before it,
- * in one statement (two index probes per field on the account's primary key).
+ * Every live field of a farm with its latest stored day and the mean crop ET of its last seven stored
+ * days, in one statement: one backward scan of seven entries per field on the account's primary key.
  */
 export async function farmStatusRows(farmId: string, conn: Knex = db): Promise<FieldStatusRow[]> {
   const res = await conn.raw<{ rows: Row[] }>(
-    `select f.id, f.name, f.account_dirty_from, a.date, a.depletion_end_mm, a.taw_mm, a.raw_mm, p.mad, r.etc
+    `select f.id, f.name, f.account_dirty_from, a.date, a.depletion_end_mm, a.taw_mm, a.raw_mm, p.mad, a.etc
        from fields f
-       left join lateral (select date, depletion_end_mm, taw_mm, raw_mm, planting_id from account_days
-                           where field_id = f.id order by date desc limit 1) a on true
+       left join lateral (
+         select max(w.date) as date, (array_agg(w.depletion_end_mm order by w.date desc))[1] as depletion_end_mm,
+                (array_agg(w.taw_mm order by w.date desc))[1] as taw_mm, (array_agg(w.raw_mm order by w.date desc))[1] as raw_mm,
+                (array_agg(w.planting_id order by w.date desc))[1] as planting_id, avg(w.etc_mm) as etc
+           from (select date, depletion_end_mm, taw_mm, raw_mm, planting_id, etc_mm from account_days
+                  where field_id = f.id order by date desc limit 7) w
+       ) a on true
        left join plantings p on p.id = a.planting_id
-       left join lateral (select avg(etc_mm) as etc from account_days
-                           where field_id = f.id and date > a.date - 7 and date <= a.date) r on true
       where f.farm_id = ? and f.archived_at is null
       order by f.name`,
     [farmId],
