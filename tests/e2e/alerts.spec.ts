@@ -21,9 +21,11 @@ async function alertsOf(page: Page, farmId: string): Promise<NotificationsBody> 
   await expect
     .poll(
       async () => {
-        await page.request.post(`/api/v1/farms/${farmId}/alerts/check`);
         body = (await (await page.request.get(`/api/v1/farms/${farmId}/notifications`)).json()) as NotificationsBody;
-        return body.data.filter((n) => n.fieldId !== null).length;
+        const found = body.data.filter((n) => n.fieldId !== null).length;
+        // The worker evaluates after its recompute; asking here too covers a demo whose accounts were already current.
+        if (found === 0) await page.request.post(`/api/v1/farms/${farmId}/alerts/check`);
+        return found;
       },
       { timeout: 120_000, intervals: [2_000] },
     )
