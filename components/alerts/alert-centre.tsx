@@ -26,7 +26,7 @@ export function AlertCentre({ farmId }: { farmId: string }) {
     <section aria-labelledby="alert-centre-title" className="flex flex-col gap-3">
       <div className="flex flex-wrap items-center justify-between gap-2">
         <h2 id="alert-centre-title" className="text-xl font-bold">
-          Alerts {data.unread > 0 && <span className="text-base font-normal text-ink/80">({data.unread} unread)</span>}
+          Recent alerts {data.unread > 0 && <span className="text-base font-normal text-ink/80">({data.unread} unread)</span>}
         </h2>
         {data.unread > 0 && (
           <Button
