@@ -11,7 +11,7 @@ import { say, fail } from "./setup/log";
 import { run, asAdmin } from "./setup/shell";
 import { RUN_PORTS, TEST_PORTS, type Ports } from "./setup/ports";
 import { startProcess, stopAll, waitForHttp } from "./setup/processes";
-import { ensureLocalCert } from "./fakes/tls";
+import { ensureLocalCert, extraCaFile } from "./fakes/tls";
 
 const NODE = process.execPath;
 const TSX = ["--import", "tsx"];
@@ -56,7 +56,7 @@ async function prepare(ports: Ports): Promise<Setup> {
     FAKE_FORECAST_PORT: String(ports.forecast),
     FAKE_PUSH_PORT: String(ports.push),
     // The local fakes that speak HTTPS use this certificate; every Node process started here trusts it.
-    NODE_EXTRA_CA_CERTS: process.env.NODE_EXTRA_CA_CERTS ?? localCert,
+    NODE_EXTRA_CA_CERTS: extraCaFile(localCert, process.env.NODE_EXTRA_CA_CERTS),
   };
   return { env, urls };
 }

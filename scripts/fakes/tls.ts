@@ -31,6 +31,17 @@ export async function ensureLocalCert(): Promise<string> {
   return LOCAL_CERT;
 }
 
+/**
+ * The file to give as NODE_EXTRA_CA_CERTS: the local certificate, plus whatever file the environment
+ * already named there (Node reads only one), so nothing the machine trusted is lost.
+ */
+export function extraCaFile(localCert: string, existing: string | undefined): string {
+  if (!existing || path.resolve(existing) === localCert || !existsSync(existing)) return localCert;
+  const bundle = path.join(LOCAL_TLS_DIR, "extra-ca-bundle.pem");
+  writeFileSync(bundle, `${readFileSync(existing, "utf8").trimEnd()}\n${readFileSync(localCert, "utf8")}`);
+  return bundle;
+}
+
 export function localTls(): { key: Buffer; cert: Buffer } {
   return { key: readFileSync(LOCAL_KEY), cert: readFileSync(LOCAL_CERT) };
 }
