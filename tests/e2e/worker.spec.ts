@@ -74,7 +74,7 @@ test("a worker logs rain offline; it waits on the phone, is sent once when back 
   await page.screenshot({ path: `tests/artifacts/screens/${info.project.name}-log-offline-pending.png`, fullPage: true });
 
   await context.setOffline(false);
-  await expect(entry).toHaveAttribute("data-entry-status", "sent", { timeout: 60_000 });
+  await expect(entry).toHaveAttribute("data-entry-status", "sent", { timeout: 180_000 });
   await expect(entry).toContainText("Sent");
   await page.screenshot({ path: `tests/artifacts/screens/${info.project.name}-log-sent.png`, fullPage: true });
 
@@ -107,7 +107,7 @@ test("an entry the server refuses stays on the phone with the server's reason, a
   await page.getByLabel("Rain (mm)").fill("1500");
   await page.getByRole("button", { name: "Save rain reading" }).click();
   const entry = page.getByRole("list", { name: "Entries on this phone" }).getByRole("listitem").filter({ hasText: "1500 mm" }).first();
-  await expect(entry).toHaveAttribute("data-entry-status", "rejected", { timeout: 60_000 });
+  await expect(entry).toHaveAttribute("data-entry-status", "rejected", { timeout: 180_000 });
   await expect(entry).toContainText("Not accepted");
   await expect(entry).toContainText("not a plausible reading");
   await expect(entry.getByLabel("Correct depthMm")).toHaveValue("1500");
