@@ -1,4 +1,11 @@
-import type { FieldSpec, PlantingSpec, RainDayInput, SystemSpec, WeatherDayInput } from "./account-types";
+import type {
+  FieldSpec,
+  KcUsed,
+  PlantingSpec,
+  RainDayInput,
+  SystemSpec,
+  WeatherDayInput,
+} from "./account-types";
 import { computeFieldSeason } from "./balance";
 import { addDaysIso, dayNumberToIsoDate, isoDateToDayNumber } from "./dates";
 import { requireNonNegative, requirePositive, requireRange, WaterBalanceInputError } from "./errors";
@@ -32,6 +39,11 @@ export interface OutlookInput {
   reserveMm?: number;
   /** override the planting's trigger: a MAD fraction of TAW, or 'raw' */
   trigger?: { mad: number } | "raw";
+  /**
+   * the Kc the account used (FieldAccountResult.kcUsed, or the columns' crop.kcUsed), so a
+   * climate-adjusted Kc carries into the outlook, which has no weather of its own to adjust from
+   */
+  kcUsed?: Pick<KcUsed, "ini" | "mid" | "end">;
   application?: ApplicationRate;
 }
 
@@ -108,10 +120,13 @@ export function computeOutlook(input: OutlookInput): OutlookResult {
     counted.push(c);
     if (c > 0) rain.push({ date, kind: "total", rainMm: c, source: { kind: "other", note: "forecast" } });
   }
-  const planting: PlantingSpec =
-    input.trigger === undefined
-      ? input.planting
-      : { ...input.planting, triggerMad: input.trigger === "raw" ? undefined : input.trigger.mad };
+  const planting: PlantingSpec = Object.assign({}, input.planting);
+  if (input.trigger !== undefined)
+    planting.triggerMad = input.trigger === "raw" ? undefined : input.trigger.mad;
+  if (input.kcUsed) {
+    planting.kc = { ini: input.kcUsed.ini, mid: input.kcUsed.mid, end: input.kcUsed.end };
+    planting.climateAdjust = false;
+  }
   const cols = computeFieldSeason({
     field: input.field,
     planting,

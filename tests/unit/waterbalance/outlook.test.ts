@@ -79,6 +79,14 @@ describe("outlook and recommendation", () => {
     expect(r.grossVolumeM3).toBeCloseTo(18750, 9);
   });
 
+  it("carries the account's climate-adjusted Kc", () => {
+    const o = computeOutlook(
+      outlookInput({ kcUsed: { ini: 1.1, mid: 1.1, end: 1.1 }, startDepletionMm: 20 }),
+    );
+    expect(o.days[0]!.kc).toBeCloseTo(1.1, 12);
+    expect(o.days[0]!.depletionEndMm).toBeCloseTo(25.5, 12);
+  });
+
   it("needs some ETo to project with", () => {
     expect(() => computeOutlook(outlookInput({ recentEtoMm: [] }))).toThrow(/recentEtoMm/);
   });
