@@ -150,8 +150,9 @@ export function balanceLoop(input: BalanceLoopInput, out: BalanceLoopOutput): nu
 
   for (let d = 0; d < n; d++) {
     const taw = tawMm[d]!;
-    if (dr > taw) dr = taw;
     oCarried[d] = dr;
+    // an initial depletion beyond TAW (or a root zone that shrank) is held at TAW; `carried` keeps the raw value
+    if (dr > taw) dr = taw;
     const check = soilCheckMm[d]!;
     if (check === check) {
       dr = check < 0 ? 0 : check > taw ? taw : check;

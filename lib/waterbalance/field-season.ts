@@ -371,6 +371,8 @@ export function prepareCropSeason(input: FieldAccountInput): PreparedCropSeason 
       tewMm: tew,
       rewMm: rew,
       wettedFractionIrrigation: input.system.wettedFraction ?? 1,
+      // a root zone that starts short of field capacity is taken to have a surface layer at the end of
+      // stage 1 (De = REW); a full one starts wet (common practice, no source)
       initialDeMm: Math.min(tew, input.initialDepletionMm > 0 ? rew : 0),
     };
   }
