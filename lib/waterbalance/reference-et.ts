@@ -5,7 +5,6 @@ import {
   psychrometricConstantKPaC,
   saturationSlopeKPaC,
   saturationVapourPressureKPa,
-  windAt2mMs,
 } from "./meteo";
 import { fillDailyInputs, hargreavesEtoMm } from "./missing-data";
 import type { FilledInputs, HumiditySource, SolarSource, WindSource } from "./missing-data";
@@ -375,6 +374,3 @@ export function referenceEtDaily(
   };
   return { method: "penman-monteith", etoMm: Math.max(0, eto), etoRawMm: eto, estimated, sources, terms };
 }
-
-/** Wind at 2 m for a reading at `heightM` (re-exported convenience; FAO-56 eq. 47). */
-export const windSpeedAt2mMs = windAt2mMs;
