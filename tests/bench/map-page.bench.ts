@@ -114,7 +114,8 @@ async function measure(base: string, farmId: string, email: string): Promise<{ j
     args: ["--headless", "--no-sandbox", "--disable-gpu", "--disable-quic", "--no-first-run", "--disable-background-networking", "--disable-component-update", "--disable-sync"],
   });
   try {
-    const page = await browser.newPage({ viewport: { width: 1280, height: 800 } });
+    const context = await browser.newContext({ viewport: { width: 1280, height: 800 } });
+    const page = await context.newPage();
     page.setDefaultTimeout(60_000);
     await page.goto(`${base}/sign-in`);
     await page.getByLabel("E-mail").fill(email);
@@ -122,7 +123,7 @@ async function measure(base: string, farmId: string, email: string): Promise<{ j
     await page.getByRole("button", { name: "Sign in" }).click();
     await page.waitForURL(/\/farms(\/|$)/);
     // A fresh tab with an empty cache, as a first visit: every chunk is fetched once.
-    const fresh = await page.context().newPage();
+    const fresh = await context.newPage();
     await page.close();
     const scripts = new Set<string>();
     fresh.on("response", (res) => {
