@@ -15,7 +15,7 @@ export function WaterOrder({ farmName, startDate, rows, units }: { farmName: str
       {placed.length === 0 ? (
         <p className="text-ink/80">No water to order in these days.</p>
       ) : (
-        <div className="overflow-x-auto">
+        <div className="overflow-x-auto" tabIndex={0} role="region" aria-label="Water order table, scrolls sideways">
           <table className="w-full min-w-[36rem] text-left text-sm tabular-nums">
             <thead>
               <tr className="border-b-2 border-ink">
