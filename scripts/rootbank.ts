@@ -175,12 +175,18 @@ async function runTests(): Promise<void> {
     say(`${name}: ${status === 0 ? "passed" : "FAILED"}`);
   };
 
-  step("type-check", run(NODE, ["node_modules/typescript/bin/tsc", "--noEmit"], { env: testEnv }));
-  step("lint", run(NODE, ["node_modules/eslint/bin/eslint.js", "."], { env: testEnv }));
+  // `npm test -- browser` runs only the build and the browser tests, for quick rounds on screens.
+  const browserOnly = process.argv[3] === "browser";
+  if (!browserOnly) {
+    step("type-check", run(NODE, ["node_modules/typescript/bin/tsc", "--noEmit"], { env: testEnv }));
+    step("lint", run(NODE, ["node_modules/eslint/bin/eslint.js", "."], { env: testEnv }));
+  }
 
   startProcess("services", NODE, [...TSX, "scripts/local-services.ts"], testEnv);
   await waitForHttp(`http://127.0.0.1:${TEST_PORTS.inboxHttp}/messages`);
-  step("unit and integration tests (vitest)", run(NODE, ["node_modules/vitest/vitest.mjs", "run"], { env: { ...testEnv, NODE_ENV: "test" } }));
+  if (!browserOnly) {
+    step("unit and integration tests (vitest)", run(NODE, ["node_modules/vitest/vitest.mjs", "run"], { env: { ...testEnv, NODE_ENV: "test" } }));
+  }
 
   step("production build", buildIfStale(testEnv, true));
 
