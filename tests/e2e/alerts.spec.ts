@@ -73,6 +73,6 @@ test("the manager sees alerts in the centre, opens a field from one, and a pushe
   // The centre's link opens the field the alert is about, and the alert counts as read.
   await list.getByRole("link").filter({ hasText: fieldAlert.title }).first().click();
   await page.waitForURL(new RegExp(`${fieldAlert.url}$`));
-  const after = (await (await page.request.get(`/api/v1/farms/${farmId}/notifications`)).json()) as NotificationsBody & { data: { id: string; readAt: string | null }[] };
+  const after = (await (await page.request.get(`/api/v1/farms/${farmId}/notifications`)).json()) as { data: { id: string; readAt: string | null }[] };
   expect(after.data.find((n) => n.id === fieldAlert.id)?.readAt).not.toBeNull();
 });
