@@ -1,3 +1,5 @@
+// Figures here are invented fixture values; each check compares the screen with what the API stored
+// (common practice, no source).
 import AxeBuilder from "@axe-core/playwright";
 import { expect, test, type Page } from "@playwright/test";
 import { DEMO, openKestrelBend } from "./helpers";

@@ -1,3 +1,5 @@
+// Expected values are hand arithmetic: great-circle distance on the 6371 km mean-radius sphere and
+// inverse-distance-squared weights (Shepard 1968, from memory); the gauges are invented.
 import { describe, expect, it } from "vitest";
 import { distanceKm, rainFromGauges, type GaugeReading } from "@/lib/waterbalance";
 
