@@ -3,6 +3,7 @@
  * (pg-boss) hands each job to one of them.
  */
 import { db } from "@/db/knex";
+import { requestPendingRecomputes } from "@/lib/accounts/dirty";
 import { runAlerts, runDeliverySweep, type AlertsJobData } from "@/lib/jobs/alerts";
 import { runMaintenance } from "@/lib/jobs/maintenance";
 import { runNightly, runNightlyTick } from "@/lib/jobs/nightly";
@@ -43,6 +44,8 @@ async function main(): Promise<void> {
     const run = await runDeliverySweep();
     if (run.sent + run.failed + run.gone) console.log(`alert deliveries: ${JSON.stringify(run)}`);
   });
+  const pending = await requestPendingRecomputes();
+  if (pending.length) console.log(`worker: queued the recompute of ${pending.length} farm(s) with stale accounts`);
   console.log("worker: waiting for jobs");
 
   const stop = async () => {

@@ -49,3 +49,13 @@ export async function markSeasonDirty(trx: Knex | Knex.Transaction, farmId: stri
       ),
     });
 }
+
+/**
+ * Queues a recompute for every farm that has stale field accounts: a worker does this when it starts,
+ * so marks left by a seed, an import cut short or a stopped worker are not left waiting for the night.
+ */
+export async function requestPendingRecomputes(): Promise<string[]> {
+  const rows: { farm_id: string }[] = await db("fields").distinct("farm_id").whereNotNull("account_dirty_from");
+  for (const row of rows) await requestRecompute(row.farm_id);
+  return rows.map((r) => r.farm_id);
+}
