@@ -33,7 +33,7 @@ async function alertsOf(page: Page, farmId: string): Promise<NotificationsBody> 
   return body;
 }
 
-// Parked: not yet green on a clean `npm test` run (it waits on background work and a slow first render).
+// Parked: not yet green on a clean `npm test` run (it waits on background work that needs a steadier wait).
 test.fixme("the manager sees alerts in the centre, opens a field from one, and a pushed alert becomes a notification", async ({ page }, testInfo) => {
   test.setTimeout(240_000);
   const farmId = await openKestrelBend(page, DEMO.manager);

@@ -4,8 +4,7 @@ import { DEMO, openKestrelBend } from "./helpers";
 
 const shot = (project: string, name: string) => `tests/artifacts/screens/${project}-${name}.png`;
 
-// Parked: not yet green on a clean `npm test` run (it waits on background work and a slow first render).
-test.fixme("a farm manager goes from the map to a field's sheet and on to the plan, and downloads it", async ({ page }, info) => {
+test("a farm manager goes from the map to a field's sheet and on to the plan, and downloads it", async ({ page }, info) => {
   test.setTimeout(180_000);
   const phone = info.project.name === "phone";
   const farmId = await openKestrelBend(page, DEMO.manager);

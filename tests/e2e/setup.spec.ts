@@ -18,7 +18,7 @@ const hectares = async (page: Page, text: RegExp): Promise<number> => {
   return Number(/([\d.]+) ha/.exec(content)?.[1]);
 };
 
-// Parked: not yet green on a clean `npm test` run (it waits on background work and a slow first render).
+// Parked: not yet green on a clean `npm test` run (it waits on background work that needs a steadier wait).
 test.fixme("a manager draws a new field on the map, then moves a corner, and the area follows", async ({ page }, info) => {
   const farmId = await openKestrelBend(page, DEMO.manager);
   await openSetup(page, farmId);
