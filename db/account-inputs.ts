@@ -64,6 +64,8 @@ export interface AccountPlanting {
   p: number;
   mad: number | null;
   climateAdjust: boolean;
+  /** calibration factor on Kc ini, mid and end (1 = none) */
+  kcScale: number;
   initialDepletionMm: number;
   cropCurveNumber: number | null;
   runoffCover: string | null;
@@ -216,6 +218,7 @@ export function toAccountPlanting(r: Row): AccountPlanting {
     p: Number(r.p),
     mad: num(r.mad),
     climateAdjust: Boolean(r.climate_adjust),
+    kcScale: num(r.kc_scale) ?? 1,
     initialDepletionMm: Number(r.initial_depletion_mm),
     cropCurveNumber: num(r.crop_curve_number),
     runoffCover: str(r.runoff_cover),
@@ -265,7 +268,7 @@ export async function loadFarmSetup(
         .whereIn("p.field_id", fields.map((f) => f.id))
         .orderBy([{ column: "p.field_id" }, { column: "p.planting_date" }])
         .select(
-          "p.id", "p.field_id", "p.planting_date", "p.end_date", "p.mad", "p.climate_adjust", "p.initial_depletion_mm",
+          "p.id", "p.field_id", "p.planting_date", "p.end_date", "p.mad", "p.climate_adjust", "p.kc_scale", "p.initial_depletion_mm",
           conn.raw("coalesce(p.kc_ini, c.kc_ini) as kc_ini"),
           conn.raw("coalesce(p.kc_mid, c.kc_mid) as kc_mid"),
           conn.raw("coalesce(p.kc_end, c.kc_end) as kc_end"),

@@ -39,8 +39,10 @@ const COLUMNS: Record<keyof PlantingValues, string> = {
   p: "p",
   mad: "mad",
   climateAdjust: "climate_adjust",
+  kcScale: "kc_scale",
   initialDepletionMm: "initial_depletion_mm",
   note: "note",
+  yieldTHa: "yield_t_ha",
 };
 const KEYS = Object.keys(plantingShape) as (keyof PlantingValues)[];
 
@@ -164,7 +166,8 @@ export async function createPlanting(farmId: string, userId: string, input: Plan
   return result;
 }
 
-export async function updatePlanting(farmId: string, userId: string, id: string, patch: PlantingPatch): Promise<Planting | undefined> {
+/** Changes a planting; `reason` (why the agronomist changed it) goes into the audit entry. */
+export async function updatePlanting(farmId: string, userId: string, id: string, patch: PlantingPatch, reason?: string): Promise<Planting | undefined> {
   const result = await db.transaction(async (trx) => {
     const row = await findRow(trx, farmId, id);
     if (!row) return undefined;
@@ -174,7 +177,7 @@ export async function updatePlanting(farmId: string, userId: string, id: string,
     await checkOverlap(trx, values, id);
     const [updated] = (await trx("plantings").where({ id }).update({ ...toColumns(values), updated_by: userId }).returning("*")) as Row[];
     const after = toPlanting(updated!);
-    await audit({ farmId, userId, action: "update", entity: "planting", entityId: id, before, after }, trx);
+    await audit({ farmId, userId, action: "update", entity: "planting", entityId: id, before, after, reason: reason ?? null }, trx);
     const changed = PLANTING_ACCOUNT_KEYS.some((k) => before[k as keyof PlantingValues] !== after[k as keyof PlantingValues]);
     if (changed) {
       // A later planting date still invalidates days from the old one: those days are no longer this crop's.

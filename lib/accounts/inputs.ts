@@ -171,11 +171,16 @@ export function nearestStationId(ctx: FarmInputContext, field: AccountField, wit
   return best.id;
 }
 
-/** The planting spec: crop values with the planting's overrides (already merged by the loader). */
+/**
+ * The planting spec: crop values with the planting's overrides (already merged by the loader). A
+ * calibration's Kc scale multiplies the three table values; the engine then adjusts mid and end for
+ * climate (FAO-56 eq. 62) as usual.
+ */
 export function plantingSpec(p: AccountPlanting): PlantingSpec {
+  const k = p.kcScale;
   return {
     plantingDate: p.plantingDate,
-    kc: { ini: p.kcIni, mid: p.kcMid, end: p.kcEnd },
+    kc: { ini: p.kcIni * k, mid: p.kcMid * k, end: p.kcEnd * k },
     stages: { iniDays: p.stageIniDays, devDays: p.stageDevDays, midDays: p.stageMidDays, lateDays: p.stageLateDays },
     ...(p.heightM !== null ? { heightM: p.heightM } : {}),
     rootDepthMinM: p.rootMinM,

@@ -32,8 +32,12 @@ export const plantingShape = {
   p: pSchema.nullable(),
   mad: quantity("The trigger (MAD)", { gt: 0, lt: 1 }, "", "a share of the total available water, e.g. 0.5").nullable(),
   climateAdjust: z.boolean({ error: "Answer true or false" }),
+  // A calibration's factor on Kc ini, mid and end; null = the curve as given.
+  kcScale: quantity("The Kc scale", { gte: 0.5, lte: 2 }, "", "1 = the curve as given; a calibration suggests it").nullable(),
   initialDepletionMm: quantity("Initial depletion", { gte: 0, lte: 2000 }, "mm", "0 = at field capacity on the planting date"),
   note: noteSchema,
+  /** harvested yield, t/ha; null until weighed. Only the season statement reads it. */
+  yieldTHa: quantity("The yield", { gte: 0, lte: 1000 }, "t/ha", "as harvested, e.g. 12.5").nullable(),
 };
 
 function datesInOrder(v: { plantingDate?: unknown; endDate?: unknown }, ctx: z.RefinementCtx): void {
@@ -64,5 +68,5 @@ export type PlantingCreate = z.infer<typeof plantingCreateSchema>;
 export const plantingPatchSchema = z.strictObject(plantingShape).omit({ fieldId: true }).partial().superRefine(datesInOrder);
 export type PlantingPatch = z.infer<typeof plantingPatchSchema>;
 
-/** Everything but the season's label and the note changes the account. */
-export const PLANTING_ACCOUNT_KEYS = Object.keys(plantingShape).filter((k) => k !== "season" && k !== "note" && k !== "fieldId");
+/** Everything but the season's label, the note and the yield changes the account. */
+export const PLANTING_ACCOUNT_KEYS = Object.keys(plantingShape).filter((k) => k !== "season" && k !== "note" && k !== "fieldId" && k !== "yieldTHa");
