@@ -252,3 +252,14 @@ export async function archiveField(farmId: string, userId: string, id: string): 
     return true;
   });
 }
+
+/** The earliest date any live field of a farm is marked stale from, with the farm's zone; null when none is. */
+export async function earliestDirtyDate(farmId: string): Promise<{ from: string; timeZone: string } | null> {
+  const row = (await db("fields as f")
+    .join("farms as fa", "fa.id", "f.farm_id")
+    .where("f.farm_id", farmId)
+    .whereNull("f.archived_at")
+    .groupBy("fa.time_zone")
+    .first(db.raw("min(f.account_dirty_from)::text as from"), "fa.time_zone")) as { from: string | null; time_zone: string } | undefined;
+  return row?.from ? { from: row.from, timeZone: row.time_zone } : null;
+}

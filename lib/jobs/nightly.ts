@@ -6,14 +6,17 @@ import { farmOutlooks, type FieldOutlook } from "@/lib/accounts/outlook";
 import { recomputeFarm, type RecomputeResult } from "@/lib/accounts/recompute";
 import { farmStatus } from "@/lib/accounts/status";
 import { farmToday } from "@/lib/farm-time";
+import type { ForecastProvider } from "@/lib/forecast/provider";
+import { refreshForecast, type RefreshResult } from "@/lib/forecast/refresh";
 import { addDaysIso } from "@/lib/waterbalance";
 import { runAlerts } from "./alerts";
+import { checkDirtyDays } from "./recompute";
 import { JOBS, queue } from "./queue";
 
 /**
  * The night's work per farm, at about 02:00 in the farm's own time zone (after the day's last manual
- * readings are in, before the morning's decisions): add the day just ended to every account, refresh the
- * outlook, then hand over to the alert hook.
+ * readings are in, before the morning's decisions): refresh the forecast, add the day just ended to every
+ * account (after quality control of the stale days), refresh the outlook, then hand over to the alerts.
  */
 
 /** Local hour the nightly run starts at. */
@@ -36,22 +39,30 @@ export async function runNightlyTick(now: Date = new Date()): Promise<string[]> 
 }
 
 export interface NightlyResult {
+  /** the stored forecast, or why there is none tonight (no station, service down): the night goes on */
+  forecast: RefreshResult | { error: string };
   recompute: RecomputeResult;
   outlooks: FieldOutlook[];
   alerts: AlertNote[];
 }
 
-/** One farm's night: mark every field dirty from yesterday, recompute, outlook, alerts. */
-export async function runNightly(farmId: string, today?: string): Promise<NightlyResult> {
+/** One farm's night: forecast, mark every field dirty from yesterday, quality control, recompute, outlook, alerts. */
+export async function runNightly(farmId: string, today?: string, opts: { forecastProvider?: ForecastProvider } = {}): Promise<NightlyResult> {
   const farm = (await db("farms").where({ id: farmId }).first("time_zone")) as { time_zone: string } | undefined;
   if (!farm) throw new Error(`nightly: no farm ${farmId}`);
   const localToday = today ?? farmToday(farm.time_zone);
+  const forecast = await refreshForecast(farmId, opts.forecastProvider ? { provider: opts.forecastProvider } : {}).catch((err: unknown) => {
+    const error = err instanceof Error ? err.message : String(err);
+    console.warn(`nightly ${farmId}: no forecast tonight: ${error}`);
+    return { error };
+  });
   await markFieldsDirty(db, { farmId }, addDaysIso(localToday, -1));
+  await checkDirtyDays(farmId);
   const recompute = await recomputeFarm(farmId, { today: localToday });
   const outlooks = (await farmOutlooks(farmId, NIGHTLY_OUTLOOK_DAYS))?.outlooks ?? [];
   const alerts = await afterNightly(farmId, outlooks);
   await runAlerts(farmId);
-  return { recompute, outlooks, alerts };
+  return { forecast, recompute, outlooks, alerts };
 }
 
 /** A field worth telling someone about after the night's run. */

@@ -12,6 +12,7 @@ import { farmsAtLocalHour, runNightly } from "@/lib/jobs/nightly";
 import { JOBS, queue } from "@/lib/jobs/queue";
 import { runRecomputeJob } from "@/lib/jobs/recompute";
 import {
+  addDaysIso,
   groupRecordsByAccountDay,
   rainFromGauges,
   runFieldAccount,
@@ -215,7 +216,16 @@ describe("nightly", () => {
   });
 
   it("adds the day just ended, refreshes the outlook and reports fields at their trigger", async () => {
-    const night = await runNightly(farm.farmId, farm.today);
+    // a forecast service that answers with the same invented days every night
+    const provider = {
+      name: "nightly-test",
+      daily: async (q: { days: number; start: string }) =>
+        Array.from({ length: q.days }, (_, k) => ({ date: addDaysIso(q.start, k), tmaxC: 30, tminC: 15, rhMaxPct: 80, rhMinPct: 30, windMs: 2, solarMJm2: 25, rainMm: 0 })),
+    };
+    const night = await runNightly(farm.farmId, farm.today, { forecastProvider: provider });
+    expect("stations" in night.forecast && night.forecast.stations.map((s) => s.days)).toEqual([7]);
+    const stored = await db("weather_days").where({ station_id: farm.ids.station, kind: "forecast", source: "nightly-test" }).count("* as n");
+    expect(Number(stored[0]!.n)).toBe(7);
     expect(night.recompute.fields).toBe(3);
     expect(night.recompute.days).toBe(3);
     expect(night.outlooks.map((o) => o.fieldId).sort()).toEqual([farm.ids.a, farm.ids.b, farm.ids.c].sort());

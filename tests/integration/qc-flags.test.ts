@@ -7,7 +7,10 @@ import { db } from "@/db/knex";
 import * as flagsRoute from "@/app/api/v1/farms/[farmId]/flags/route";
 import * as flagRoute from "@/app/api/v1/farms/[farmId]/flags/[flagId]/route";
 import { queue } from "@/lib/jobs/queue";
+import { runRecomputeJob } from "@/lib/jobs/recompute";
+import { QC_LIMITS } from "@/lib/qc/rules";
 import { runFarmQc } from "@/lib/qc/run";
+import * as readingsRoute from "@/app/api/v1/farms/[farmId]/rain-readings/route";
 import { call } from "../helpers/api";
 import { createFarmTeam, type FarmTeam } from "../helpers/fixtures";
 
@@ -192,5 +195,28 @@ describe("the flags API", () => {
     const flag = (await list()).body.data[0]!;
     expect((await decide(flag.id, { status: "accepted" }, other.owner, other.farmId)).status).toBe(404);
     expect((await decide("not-a-uuid", { status: "accepted" })).status).toBe(404);
+  });
+});
+
+describe("quality control in the recompute job", () => {
+  it("flags a reading that came in through the API before the account is rewritten", async () => {
+    const farm = await createFarmTeam();
+    const [gauge] = await db("gauges").insert({ farm_id: farm.farmId, name: "Paddock gauge", kind: "manual" }).returning("id");
+    await db("fields").insert({ farm_id: farm.farmId, name: "Block 9", area_ha: 4, gauge_id: gauge.id });
+    const depthMm = QC_LIMITS.rainDayMm + 50;
+    const posted = await call<{ reading: { id: string } }>(readingsRoute.POST, `/api/v1/farms/${farm.farmId}/rain-readings`, {
+      method: "POST",
+      as: farm.worker,
+      params: { farmId: farm.farmId },
+      body: { gaugeId: gauge.id, readAt: "2026-11-21T09:00:00+11:00", rainDate: "2026-11-20", depthMm },
+    });
+    expect(posted.status).toBe(201);
+    const readingId = posted.body.reading.id;
+    expect(await db("qc_flags").where({ entity_id: readingId })).toHaveLength(0);
+    await runRecomputeJob({ farmId: farm.farmId });
+    const flags = await db("qc_flags").where({ entity_id: readingId }).select("rule", "status");
+    expect(flags).toEqual([{ rule: "rain_range", status: "open" }]);
+    const row = await db("rain_readings").where({ id: readingId }).first("flagged", "depth_mm");
+    expect(row).toEqual({ flagged: true, depth_mm: depthMm });
   });
 });
