@@ -14,6 +14,8 @@ export const HA_PER_ACRE = 0.40468564224;
 export const M3_PER_ACRE_FOOT = 1233.48;
 /** 1 ML = 1,000 m³. */
 export const M3_PER_ML = 1000;
+/** 1 mm of water over 1 ha = 10 m³ (0.001 m × 10,000 m²); so 100 mm over 1 ha = 1 ML. */
+export const M3_PER_MM_HA = 10;
 /** 1 US gallon = 3.785411784 L exactly. */
 export const LITRES_PER_US_GALLON = 3.785411784;
 

@@ -30,3 +30,17 @@ export function passwordResetMail(to: string, link: string): Mail {
     ].join("\n"),
   };
 }
+
+export function statementMail(to: string, farmName: string, what: string, sender: string, pdf: { filename: string; content: Buffer }): Mail {
+  return {
+    to,
+    subject: `Season water statement: ${farmName}, ${what}`,
+    text: [
+      `${sender} sent you the season water statement of ${farmName} (${what}) from Rootbank. It is attached as a PDF.`,
+      "",
+      "The figures are estimates from the daily water account. Confirm them with meter readings and field checks,",
+      "and follow your local water rules, licence conditions and licensed advice before relying on them.",
+    ].join("\n"),
+    attachments: [{ filename: pdf.filename, content: pdf.content, contentType: "application/pdf" }],
+  };
+}
