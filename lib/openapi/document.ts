@@ -6,8 +6,9 @@ import { operations as observations } from "./paths/observations";
 import { operations as accounts } from "./paths/accounts";
 import { operations as imports } from "./paths/imports";
 import { operations as alerts } from "./paths/alerts";
+import { operations as statement } from "./paths/statement";
 
-export const OPERATIONS: readonly Operation[] = [...people, ...setup, ...observations, ...accounts, ...imports, ...alerts];
+export const OPERATIONS: readonly Operation[] = [...people, ...setup, ...observations, ...accounts, ...imports, ...alerts, ...statement];
 
 const errorSchema = {
   type: "object",
