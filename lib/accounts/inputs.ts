@@ -173,14 +173,15 @@ export function nearestStationId(ctx: FarmInputContext, field: AccountField, wit
 
 /**
  * The planting spec: crop values with the planting's overrides (already merged by the loader). A
- * calibration's Kc scale multiplies the three table values; the engine then adjusts mid and end for
+ * calibration's Kc scale multiplies the three table values (capped at 2); the engine then adjusts mid and end for
  * climate (FAO-56 eq. 62) as usual.
  */
 export function plantingSpec(p: AccountPlanting): PlantingSpec {
-  const k = p.kcScale;
+  // Kc stays within the engine's 0-2 (twice the grass reference is no crop's).
+  const scaled = (kc: number) => Math.min(2, kc * p.kcScale);
   return {
     plantingDate: p.plantingDate,
-    kc: { ini: p.kcIni * k, mid: p.kcMid * k, end: p.kcEnd * k },
+    kc: { ini: scaled(p.kcIni), mid: scaled(p.kcMid), end: scaled(p.kcEnd) },
     stages: { iniDays: p.stageIniDays, devDays: p.stageDevDays, midDays: p.stageMidDays, lateDays: p.stageLateDays },
     ...(p.heightM !== null ? { heightM: p.heightM } : {}),
     rootDepthMinM: p.rootMinM,

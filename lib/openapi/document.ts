@@ -7,8 +7,9 @@ import { operations as accounts } from "./paths/accounts";
 import { operations as imports } from "./paths/imports";
 import { operations as alerts } from "./paths/alerts";
 import { operations as statement } from "./paths/statement";
+import { operations as agronomy } from "./paths/agronomy";
 
-export const OPERATIONS: readonly Operation[] = [...people, ...setup, ...observations, ...accounts, ...imports, ...alerts, ...statement];
+export const OPERATIONS: readonly Operation[] = [...people, ...setup, ...observations, ...accounts, ...imports, ...alerts, ...agronomy, ...statement];
 
 const errorSchema = {
   type: "object",
