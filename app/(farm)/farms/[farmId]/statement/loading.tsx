@@ -1,0 +1,3 @@
+export default function Loading() {
+  return <p className="text-ink/75">Adding up the season…</p>;
+}
