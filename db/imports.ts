@@ -172,6 +172,12 @@ export async function getImport(farmId: string, id: string): Promise<ImportRecor
   return row ? toImport(row) : undefined;
 }
 
+/** An import by id alone, for the worker that runs it (the job carries no farm). */
+export async function getImportById(id: string): Promise<ImportRecord | undefined> {
+  const row = (await db("imports").where({ id }).first()) as ImportRow | undefined;
+  return row ? toImport(row) : undefined;
+}
+
 export async function listImports(
   farmId: string,
   page: { limit: number; offset: number },

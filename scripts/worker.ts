@@ -5,6 +5,8 @@
 import { db } from "@/db/knex";
 import { requestPendingRecomputes } from "@/lib/accounts/dirty";
 import { runAlerts, runDeliverySweep, type AlertsJobData } from "@/lib/jobs/alerts";
+import type { ImportJobData } from "@/lib/imports/background";
+import { runImportJob } from "@/lib/jobs/imports";
 import { runMaintenance } from "@/lib/jobs/maintenance";
 import { runNightly, runNightlyTick } from "@/lib/jobs/nightly";
 import { JOBS, queue } from "@/lib/jobs/queue";
@@ -43,6 +45,9 @@ async function main(): Promise<void> {
   await boss.work(JOBS.alertDeliveries, async () => {
     const run = await runDeliverySweep();
     if (run.sent + run.failed + run.gone) console.log(`alert deliveries: ${JSON.stringify(run)}`);
+  });
+  await boss.work<ImportJobData>(JOBS.importFile, async ([job]) => {
+    if (job) console.log(`import ${job.data.importId}: ${await runImportJob(job.data)}`);
   });
   const pending = await requestPendingRecomputes();
   if (pending.length) console.log(`worker: queued the recompute of ${pending.length} farm(s) with stale accounts`);

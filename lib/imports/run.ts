@@ -15,6 +15,7 @@ import {
 } from "@/db/imports";
 import { markFieldsDirty, requestRecompute } from "@/lib/accounts/dirty";
 import { AppError } from "@/lib/api/errors";
+import { queueImport } from "./background";
 import { runFarmQc } from "@/lib/qc/run";
 import type { ImportRequest } from "./options";
 import { prepare, READ_SHARE, WRITE_SHARE, type Job } from "./prepare";
@@ -22,7 +23,7 @@ import type { ImportCounts, ImportReport } from "./report";
 
 /** Files above this are refused with 413 before they are read. */
 export const MAX_IMPORT_BYTES = 20 * 1024 * 1024;
-/** Files up to this are processed within the request; larger ones in the background, with progress. */
+/** Files up to this are processed within the request; larger ones by a worker (./background.ts), with progress. */
 export const SYNC_IMPORT_BYTES = 256 * 1024;
 
 /** Checks that the station or gauge the options name belongs to the farm (422 naming the option if not). */
@@ -61,8 +62,8 @@ async function checkReferences(farmId: string, request: ImportRequest): Promise<
 
 /**
  * Starts an import: a repeat of a finished one (same file, kind and options on this farm) returns that
- * import; a small file is processed before answering; a large one is processed after the answer while
- * its progress is written to its row.
+ * import; a small file is processed before answering; a large one is queued for a worker, which writes
+ * its progress to its row.
  */
 export async function startFileImport(
   args: Omit<Job, "importId">,
@@ -90,7 +91,7 @@ export async function startFileImport(
     await processImport(job);
     return { record: (await getImport(args.farmId, record.id)) ?? record, repeat: false, background: false };
   }
-  void processImport(job);
+  await queueImport(args.farmId, record.id, args.bytes);
   return { record, repeat: false, background: true };
 }
 

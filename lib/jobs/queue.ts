@@ -15,6 +15,8 @@ export const JOBS = {
   alerts: "alerts",
   /** every few minutes: send alerts held by quiet hours, digests, and retries after backoff */
   alertDeliveries: "alert-deliveries",
+  /** a large uploaded file, kept in the file store until a worker imports it; data: { importId } */
+  importFile: "import-file",
 } as const;
 
 const globalForBoss = globalThis as unknown as { rootbankBoss?: Promise<PgBoss> };
@@ -32,6 +34,7 @@ export function queue(): Promise<PgBoss> {
     await boss.createQueue(JOBS.nightlyTick, { name: JOBS.nightlyTick, policy: "standard" });
     await boss.createQueue(JOBS.alerts, { name: JOBS.alerts, policy: "stately" });
     await boss.createQueue(JOBS.alertDeliveries, { name: JOBS.alertDeliveries, policy: "standard" });
+    await boss.createQueue(JOBS.importFile, { name: JOBS.importFile, policy: "standard" });
     return boss;
   })();
   return globalForBoss.rootbankBoss;

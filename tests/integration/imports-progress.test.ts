@@ -1,13 +1,17 @@
 /**
- * A large file is processed after the answer: the import row's status and progress move as it goes,
+ * A large file is processed after the answer, by a worker: the upload waits in the file store with its
+ * queued job (so it outlives the request), the import row's status and progress move as the worker goes,
  * and the same file sent meanwhile is recognised instead of being imported twice.
  */
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { db } from "@/db/knex";
 import * as importsRoute from "@/app/api/v1/farms/[farmId]/imports/route";
 import * as importRoute from "@/app/api/v1/farms/[farmId]/imports/[importId]/route";
-import { queue } from "@/lib/jobs/queue";
+import { importFileKey, type ImportJobData } from "@/lib/imports/background";
 import { SYNC_IMPORT_BYTES } from "@/lib/imports/run";
+import { runImportJob } from "@/lib/jobs/imports";
+import { JOBS, queue } from "@/lib/jobs/queue";
+import { fileStore } from "@/lib/storage";
 import { call } from "../helpers/api";
 import { createFarmTeam, type FarmTeam } from "../helpers/fixtures";
 import { upload } from "../fixtures/imports/upload";
@@ -89,9 +93,20 @@ describe("large imports", () => {
     expect(again.status).toBe(200);
     expect(again.body).toMatchObject({ id: res.body.id, repeat: true });
 
+    // no worker yet: the file waits in the store and its job in the queue
+    const key = importFileKey(team.farmId, res.body.id);
+    expect((await fileStore().get(key))?.data.byteLength).toBe(Buffer.byteLength(csv));
+    const waiting = await db("jobs.job").where({ name: JOBS.importFile, singleton_key: res.body.id }).select("state");
+    expect(waiting.map((j: { state: string }) => j.state)).toEqual(["created"]);
+
+    // a worker starts (as `npm run worker` would) and takes the job
+    const boss = await queue();
+    await boss.work<ImportJobData>(JOBS.importFile, { pollingIntervalSeconds: 0.5 }, async ([job]) => {
+      if (job) await runImportJob(job.data);
+    });
     const seen: number[] = [];
     let current: ImportBody = res.body;
-    for (let i = 0; i < 600 && current.status === "processing"; i++) {
+    for (let i = 0; i < 2400 && current.status === "processing"; i++) {
       await new Promise((r) => setTimeout(r, 25));
       current = (
         await call<ImportBody>(importRoute.GET, "/x", {
@@ -111,5 +126,6 @@ describe("large imports", () => {
     expect(
       await db("weather_days").where({ station_id: stationId }).count<{ n: string }[]>({ n: "*" }),
     ).toEqual([{ n: 731 }]);
-  });
+    expect(await fileStore().get(key)).toBeUndefined(); // the upload is not kept once imported
+  }, 90_000);
 });
