@@ -60,7 +60,15 @@ export function openApiDocument(serverUrl: string): Record<string, unknown> {
       tags: [op.tag],
       parameters: [...params, ...queryParams],
       ...(op.body
-        ? { requestBody: { required: true, content: { [op.bodyContentType ?? "application/json"]: { schema: jsonSchema(op.body, "input") } } } }
+        ? {
+            requestBody: {
+              required: true,
+              content: {
+                [op.bodyContentType ?? "application/json"]: { schema: jsonSchema(op.body, "input") },
+                ...Object.fromEntries(Object.entries(op.otherBodies ?? {}).map(([type, schema]) => [type, { schema: jsonSchema(schema, "input") }])),
+              },
+            },
+          }
         : {}),
       responses: {
         [status]: {

@@ -13,6 +13,8 @@ export interface Operation {
   body?: z.ZodType;
   /** content type of the body, when not JSON (e.g. multipart/form-data, text/csv) */
   bodyContentType?: string;
+  /** further content types the same operation accepts, each with its own schema (e.g. a form with a file) */
+  otherBodies?: Record<string, z.ZodType>;
   query?: z.ZodType;
   response?: z.ZodType;
   /** success status (default 200) */

@@ -70,6 +70,21 @@ export const rainRecordQuerySchema = z.object({
 });
 
 /** The fields of a multipart reading (sent with a photo) as the JSON body would carry them. */
+/**
+ * The same reading sent as multipart/form-data with a photo: every field is text, read by
+ * rainReadingFromForm and then checked by rainReadingSchema. Described here for the API document.
+ */
+export const rainReadingFormSchema = z.object({
+  gaugeId: z.uuid(),
+  readAt: z.string().describe("ISO instant with a zone, e.g. 2026-11-30T09:00:00+10:00"),
+  rainDate: z.iso.date().optional(),
+  depthMm: z.string().optional().describe("the depth in mm, as a number"),
+  trace: z.enum(["true", "false"]).optional(),
+  note: z.string().optional(),
+  id: z.uuid().optional(),
+  photo: z.file().max(10 * 1024 * 1024).mime(["image/jpeg", "image/png", "image/webp", "image/heic"]).optional(),
+});
+
 export function rainReadingFromForm(form: FormData): Record<string, unknown> {
   const text = (name: string): string | undefined => {
     const v = form.get(name);

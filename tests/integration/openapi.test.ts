@@ -39,4 +39,13 @@ describe("OpenAPI document", () => {
     expect(Object.keys(res.body.paths)).toContain("/api/v1/farms/{farmId}/invitations");
     expect(res.body.components.schemas).toHaveProperty("Error");
   });
+
+  it("documents both bodies a gauge reading may come in: JSON, and a form with the photo as a file", async () => {
+    type Body = { content: Record<string, { schema: { properties: Record<string, { format?: string }> } }> };
+    const res = await call<{ paths: Record<string, { post?: { requestBody: Body } }> }>(openapi.GET, "/api/v1/openapi.json");
+    const content = res.body.paths["/api/v1/farms/{farmId}/rain-readings"]?.post?.requestBody.content ?? {};
+    expect(Object.keys(content).sort()).toEqual(["application/json", "multipart/form-data"]);
+    expect(content["multipart/form-data"]?.schema.properties.photo?.format).toBe("binary");
+    expect(content["application/json"]?.schema.properties).not.toHaveProperty("photo");
+  });
 });

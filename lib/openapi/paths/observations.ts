@@ -5,6 +5,7 @@ import { irrigationEventPatchSchema, irrigationEventSchema } from "@/lib/validat
 import {
   rainReadingPatchSchema,
   rainReadingQuerySchema,
+  rainReadingFormSchema,
   rainReadingSchema,
   rainRecordQuerySchema,
   rainRecordsSchema,
@@ -58,6 +59,9 @@ export const operations: Operation[] = [
     tag: RAIN,
     access: "log",
     body: rainReadingSchema,
+    otherBodies: {
+      "multipart/form-data": rainReadingFormSchema,
+    },
     response: z.object({ reading }),
     status: 201,
   },
