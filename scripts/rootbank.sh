@@ -11,4 +11,14 @@ if [ ! -f "$stamp" ] || [ package-lock.json -nt "$stamp" ]; then
   npm ci --no-audit --no-fund
 fi
 
+# Test runs and benchmarks share fixed ports and the test database: one at a time per machine.
+if [ "${1:-}" = test ] || [ "${1:-}" = bench ]; then
+  lock="${TMPDIR:-/tmp}/rootbank-test-run.lock"
+  exec 9>"$lock"
+  if ! flock -n 9; then
+    echo "rootbank: another test run or benchmark is using the test ports; waiting for it…"
+    flock 9
+  fi
+fi
+
 exec node --import tsx scripts/rootbank.ts "$@"
