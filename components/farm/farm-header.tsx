@@ -10,6 +10,7 @@ export function FarmHeader({ farmId, farmName, role, userName }: { farmId: strin
     { href: `/farms/${farmId}/plan`, label: "Plan", show: true },
     { href: `/farms/${farmId}/log`, label: "Log", show: can(role, "log") },
     { href: `/farms/${farmId}/setup`, label: "Set-up", show: can(role, "editSetup") },
+    { href: `/farms/${farmId}/agronomy`, label: "Crops", show: can(role, "editAgronomy") },
     { href: `/farms/${farmId}/statement`, label: "Statement", show: can(role, "readStatement") },
     { href: `/farms/${farmId}/members`, label: "People", show: can(role, "manageMembers") },
   ].filter((l) => l.show);
