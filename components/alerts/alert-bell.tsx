@@ -1,7 +1,7 @@
 "use client";
 
 import Link from "next/link";
-import { useUnreadCount } from "./use-alerts";
+import { useUnreadCount } from "@/lib/client/use-alerts";
 
 /** The header's way to the alert centre, with the number of unread alerts. */
 export function AlertBell({ farmId }: { farmId: string }) {

@@ -6,7 +6,7 @@ import { Button } from "@/components/ui/button";
 import { Notice } from "@/components/ui/notice";
 import { sendJson } from "@/lib/client/fetcher";
 import { ALERT_KIND_INFO } from "@/lib/alerts/rules";
-import { notificationsKey, unreadKey, useNotifications, type NotificationDto } from "./use-alerts";
+import { notificationsKey, unreadKey, useNotifications, type NotificationDto } from "@/lib/client/use-alerts";
 
 /** The in-app centre: the same alerts a phone gets by push, for every device, newest first. */
 export function AlertCentre({ farmId }: { farmId: string }) {

@@ -6,7 +6,7 @@ import { Button } from "@/components/ui/button";
 import { Notice } from "@/components/ui/notice";
 import { ApiError, sendJson } from "@/lib/client/fetcher";
 import { ALERT_KIND_INFO, type AlertRule } from "@/lib/alerts/rules";
-import { useAlertPreferences, type AlertPreferencesDto, type AlertSettingsDto } from "./use-alerts";
+import { useAlertPreferences, type AlertPreferencesDto, type AlertSettingsDto } from "@/lib/client/use-alerts";
 
 /** One person's rules on this farm: what they hear about, how, and when not to be disturbed. */
 export function AlertSettings({ farmId }: { farmId: string }) {

@@ -1,7 +1,7 @@
 "use client";
 
 import { Notice } from "@/components/ui/notice";
-import { useDeliveryLog } from "./use-alerts";
+import { useDeliveryLog } from "@/lib/client/use-alerts";
 
 const STATUS: Record<string, string> = { pending: "waiting", sent: "delivered", failed: "failed", gone: "device gone" };
 
