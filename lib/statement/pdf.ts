@@ -132,7 +132,7 @@ export function statementPdf(s: Statement): Promise<Buffer> {
     table(
       doc,
       [
-        { title: "Field", width: 130 },
+        { title: "Field", width: 114 },
         { title: "ha", width: 45, align: "right" },
         { title: "Rain", width: 55, align: "right" },
         { title: "Eff. rain", width: 55, align: "right" },
@@ -162,7 +162,7 @@ export function statementPdf(s: Statement): Promise<Buffer> {
       doc,
       [
         { title: "Field", width: 110 },
-        { title: "Crop, season", width: 120 },
+        { title: "Crop, season", width: 119 },
         { title: "t/ha", width: 50, align: "right" },
         { title: "Irrigation m³", width: 80, align: "right" },
         { title: "kg/m³ irr.", width: 70, align: "right" },
