@@ -1,67 +1,52 @@
 import "server-only";
+import { createHash } from "node:crypto";
+import { Readable } from "node:stream";
+import { pipeline } from "node:stream/promises";
 import type { Knex } from "knex";
+import type { PoolClient } from "pg";
+import { from as copyFrom } from "pg-copy-streams";
 import { db } from "./knex";
 
 /** The stored water account (account_days): bulk rewrites by the recompute job, and the reads of the API. */
 
-/** Rows for account_days in columns, as the bulk insert takes them. */
-export interface AccountColumns {
-  fieldId: string[];
-  date: string[];
-  plantingId: string[];
-  etoMm: number[];
-  kc: number[];
-  etcMm: number[];
-  ks: number[];
-  etActualMm: number[];
-  rainMm: number[];
-  runoffMm: number[];
-  effectiveRainMm: number[];
-  irrigationGrossMm: number[];
-  irrigationNetMm: number[];
-  capillaryRiseMm: number[];
-  deepPercolationMm: number[];
-  depletionStartMm: number[];
-  depletionEndMm: number[];
-  tawMm: number[];
-  rawMm: number[];
-  pAdjusted: number[];
-  rootDepthM: number[];
-  soilCheckReset: boolean[];
-  /** 1-based index into provenanceTexts: most days of a batch share their provenance */
-  provenanceIndex: number[];
-  provenanceTexts: string[];
-}
-
-/** `'…'` SQL string literal (standard_conforming_strings is on, the PostgreSQL default, so only quotes double). */
-function sqlText(s: string): string {
-  return `'${s.replace(/'/g, "''")}'`;
-}
-
-/** Array literal of uuids, dates, numbers or booleans (values Rootbank generated; none needs quoting). */
-function plainArray(values: readonly (string | number | boolean)[], type: string): string {
-  return `'{${values.join(",")}}'::${type}[]`;
-}
-
-/** Array literal of arbitrary texts: each element in double quotes with backslashes and quotes escaped. */
-function textArray(values: readonly string[]): string {
-  let s = "{";
-  for (let i = 0; i < values.length; i++) {
-    if (i > 0) s += ",";
-    s += `"${values[i]!.replace(/\\/g, "\\\\").replace(/"/g, '\\"')}"`;
-  }
-  return `${sqlText(s + "}")}::text[]`;
-}
-
 /**
- * The driver's error quotes the whole statement (megabytes of literals here); keep PostgreSQL's own
- * message, code and constraint only.
+ * The driver's error quotes the whole statement; keep PostgreSQL's own message, code and constraint only.
  */
 function shortError(err: unknown): unknown {
   if (!(err instanceof Error)) return err;
   const pg = err as Error & { code?: string; constraint?: string; detail?: string };
   const reason = pg.message.includes(" - ") ? pg.message.slice(pg.message.lastIndexOf(" - ") + 3) : pg.message;
   return Object.assign(new Error(`rewriting account days: ${reason}`), { code: pg.code, constraint: pg.constraint, detail: pg.detail });
+}
+
+/** One run of a field's account (a planting over consecutive days), column by column as the engine gives it. */
+export interface AccountDayRun {
+  fieldId: string;
+  plantingId: string;
+  startDate: string;
+  days: number;
+  etoMm: Float64Array;
+  kc: Float64Array;
+  etcMm: Float64Array;
+  ks: Float64Array;
+  etActualMm: Float64Array;
+  rainMm: Float64Array;
+  runoffMm: Float64Array;
+  effectiveRainMm: Float64Array;
+  irrigationGrossMm: Float64Array;
+  irrigationNetMm: Float64Array;
+  capillaryRiseMm: Float64Array;
+  deepPercolationMm: Float64Array;
+  depletionStartMm: Float64Array;
+  depletionEndMm: Float64Array;
+  tawMm: Float64Array;
+  rawMm: Float64Array;
+  pAdjusted: Float64Array;
+  rootDepthM: Float64Array;
+  /** 1 on a day a soil check reset the account */
+  soilCheckReset: Uint8Array;
+  /** each day's provenance document: an index from {@link AccountDayRows.addProvenance} */
+  provenance: Int32Array;
 }
 
 const FLOAT_COLUMNS = [
@@ -83,55 +68,274 @@ const FLOAT_COLUMNS = [
   ["raw_mm", "rawMm"],
   ["p_adjusted", "pAdjusted"],
   ["root_depth_m", "rootDepthM"],
-] as const satisfies readonly (readonly [string, keyof AccountColumns])[];
+] as const satisfies readonly (readonly [string, keyof AccountDayRun])[];
+
+const COPY_DAYS =
+  `copy account_days (field_id, date, planting_id, ${FLOAT_COLUMNS.map(([c]) => c).join(", ")}, soil_check_reset, provenance_id) ` +
+  "from stdin with (format binary)";
+/** Fields per row of the binary COPY: field, date, planting, the numbers, the reset flag, the provenance. */
+const COPY_FIELDS = 3 + FLOAT_COLUMNS.length + 2;
+const COPY_ROW_BYTES = 2 + (4 + 16) + (4 + 4) + (4 + 16) + FLOAT_COLUMNS.length * (4 + 8) + (4 + 1) + (4 + 16);
+/** "PGCOPY\n\377\r\n\0", then no flags and no header extension (PostgreSQL COPY, binary format). */
+const COPY_HEADER = Buffer.concat([Buffer.from("PGCOPY\n\xff\r\n\0", "latin1"), Buffer.alloc(8)]);
+const COPY_TRAILER_BYTES = 2;
+const COPY_CHUNK = 1 << 20;
+/** Days from 1970-01-01 to 2000-01-01, PostgreSQL's date epoch. */
+const PG_EPOCH_DAYS = 10957;
+
+/** A uuid as four big-endian 32-bit words. */
+function uuidWords(id: string): Int32Array {
+  const hex = id.replace(/-/g, "");
+  if (!/^[0-9a-fA-F]{32}$/.test(hex)) throw new Error(`not a uuid: ${id}`);
+  const out = new Int32Array(4);
+  for (let k = 0; k < 4; k++) out[k] = Number.parseInt(hex.slice(8 * k, 8 * k + 8), 16) | 0;
+  return out;
+}
 
 /**
- * Rewrites fields' account days in one round trip: deletes each field's days from its date on, inserts
- * `rows` (provenance parsed once per distinct text), and clears the marks whose counter is unchanged
- * (compare-and-set). The statements go as one simple query, which PostgreSQL runs as one implicit
- * transaction, so the server works while the caller computes the next batch. Returns the ids cleared.
+ * A batch of account_days rows, encoded as they are added in PostgreSQL's binary COPY format (numbers go
+ * as IEEE doubles, never through text), with the batch's distinct provenance documents.
+ */
+export class AccountDayRows {
+  /** the batch's distinct provenance documents (JSON texts); rows name them by index */
+  readonly provenanceTexts: string[] = [];
+  /** md5 of each document's text, as a uuid (32 hex digits): its key in account_provenance */
+  readonly provenanceIds: string[] = [];
+  private readonly provenanceWords: Int32Array[] = [];
+  private readonly runs: { fieldId: string; plantingId: string; firstRow: number; docs: Set<number> }[] = [];
+  private readonly uuids = new Map<string, Int32Array>();
+  private bytes: Uint8Array;
+  private view: DataView;
+  private count = 0;
+
+  constructor(expectedRows = 4096) {
+    this.bytes = new Uint8Array(COPY_HEADER.length + expectedRows * COPY_ROW_BYTES + COPY_TRAILER_BYTES);
+    this.bytes.set(COPY_HEADER, 0);
+    this.view = new DataView(this.bytes.buffer);
+  }
+
+  /** Rows added so far. */
+  get length(): number {
+    return this.count;
+  }
+
+  /** Drops the rows from `length` on (taken from {@link length} between runs). */
+  truncate(length: number): void {
+    while (this.runs.length > 0 && this.runs[this.runs.length - 1]!.firstRow >= length) this.runs.pop();
+    this.count = Math.min(this.count, length);
+  }
+
+  /** Adds a provenance document (JSON text) to the batch; returns its index for {@link AccountDayRun.provenance}. */
+  addProvenance(json: string): number {
+    const id = createHash("md5").update(json).digest("hex");
+    this.provenanceTexts.push(json);
+    this.provenanceIds.push(id);
+    this.provenanceWords.push(uuidWords(id));
+    return this.provenanceTexts.length - 1;
+  }
+
+  private uuid(id: string): Int32Array {
+    let w = this.uuids.get(id);
+    if (w === undefined) this.uuids.set(id, (w = uuidWords(id)));
+    return w;
+  }
+
+  private reserve(rows: number): void {
+    const need = COPY_HEADER.length + (this.count + rows) * COPY_ROW_BYTES + COPY_TRAILER_BYTES;
+    if (need <= this.bytes.length) return;
+    const grown = new Uint8Array(Math.max(need, this.bytes.length * 2));
+    grown.set(this.bytes.subarray(0, COPY_HEADER.length + this.count * COPY_ROW_BYTES));
+    this.bytes = grown;
+    this.view = new DataView(grown.buffer);
+  }
+
+  /** Appends a run's days. */
+  append(run: AccountDayRun): void {
+    const n = run.days;
+    if (n <= 0) return;
+    this.reserve(n);
+    const docs = new Set<number>();
+    this.runs.push({ fieldId: run.fieldId, plantingId: run.plantingId, firstRow: this.count, docs });
+    const field = this.uuid(run.fieldId);
+    const planting = this.uuid(run.plantingId);
+    const firstDay = Date.parse(`${run.startDate}T00:00:00Z`) / 86_400_000 - PG_EPOCH_DAYS;
+    if (!Number.isInteger(firstDay)) throw new Error(`not an ISO date: ${run.startDate}`);
+    const cols = FLOAT_COLUMNS.map(([, key]) => run[key] as Float64Array);
+    const v = this.view;
+    let o = COPY_HEADER.length + this.count * COPY_ROW_BYTES;
+    for (let d = 0; d < n; d++) {
+      v.setInt16(o, COPY_FIELDS);
+      v.setInt32(o + 2, 16);
+      v.setInt32(o + 6, field[0]!);
+      v.setInt32(o + 10, field[1]!);
+      v.setInt32(o + 14, field[2]!);
+      v.setInt32(o + 18, field[3]!);
+      v.setInt32(o + 22, 4);
+      v.setInt32(o + 26, firstDay + d);
+      v.setInt32(o + 30, 16);
+      v.setInt32(o + 34, planting[0]!);
+      v.setInt32(o + 38, planting[1]!);
+      v.setInt32(o + 42, planting[2]!);
+      v.setInt32(o + 46, planting[3]!);
+      o += 50;
+      for (let c = 0; c < cols.length; c++) {
+        v.setInt32(o, 8);
+        v.setFloat64(o + 4, cols[c]![d]!);
+        o += 12;
+      }
+      v.setInt32(o, 1);
+      v.setUint8(o + 4, run.soilCheckReset[d] ? 1 : 0);
+      const doc = run.provenance[d]!;
+      docs.add(doc);
+      const w = this.provenanceWords[doc]!;
+      v.setInt32(o + 5, 16);
+      v.setInt32(o + 9, w[0]!);
+      v.setInt32(o + 13, w[1]!);
+      v.setInt32(o + 17, w[2]!);
+      v.setInt32(o + 21, w[3]!);
+      o += 25;
+    }
+    this.count += n;
+  }
+
+  /** The COPY data: header, rows, trailer. */
+  copyData(): Buffer {
+    const end = COPY_HEADER.length + this.count * COPY_ROW_BYTES;
+    this.view.setInt16(end, -1);
+    return Buffer.from(this.bytes.buffer, 0, end + COPY_TRAILER_BYTES);
+  }
+
+  /** The fields and plantings of the rows. */
+  ids(): { fieldIds: string[]; plantingIds: string[] } {
+    return { fieldIds: [...new Set(this.runs.map((r) => r.fieldId))], plantingIds: [...new Set(this.runs.map((r) => r.plantingId))] };
+  }
+
+  /** Each field's distinct documents, as (field, document index) pairs. */
+  documentsByField(): { fieldIds: string[]; docs: number[] } {
+    const byField = new Map<string, Set<number>>();
+    for (const r of this.runs) {
+      const set = byField.get(r.fieldId);
+      if (set) for (const d of r.docs) set.add(d);
+      else byField.set(r.fieldId, new Set(r.docs));
+    }
+    const fieldIds: string[] = [];
+    const docs: number[] = [];
+    for (const [f, set] of byField) {
+      for (const d of set) {
+        fieldIds.push(f);
+        docs.push(d);
+      }
+    }
+    return { fieldIds, docs };
+  }
+}
+
+async function copyIn(client: PoolClient, sql: string, data: Buffer): Promise<void> {
+  async function* chunks(): AsyncGenerator<Buffer> {
+    for (let k = 0; k < data.length; k += COPY_CHUNK) yield data.subarray(k, k + COPY_CHUNK);
+  }
+  await pipeline(Readable.from(chunks()), client.query(copyFrom(sql)));
+}
+
+/** Each listed field's latest day and the mean crop ET of its last seven stored days (none for a field without days). */
+const LATEST_SELECT = `
+  select v.id as field_id, w.date, w.planting_id, w.depletion_end_mm, w.taw_mm, w.raw_mm, w.recent_etc_mm
+    from unnest($1::uuid[]) as v(id)
+    join lateral (
+      select max(d.date) as date, (array_agg(d.planting_id order by d.date desc))[1] as planting_id,
+             (array_agg(d.depletion_end_mm order by d.date desc))[1] as depletion_end_mm,
+             (array_agg(d.taw_mm order by d.date desc))[1] as taw_mm, (array_agg(d.raw_mm order by d.date desc))[1] as raw_mm,
+             avg(d.etc_mm) as recent_etc_mm
+        from (select date, planting_id, depletion_end_mm, taw_mm, raw_mm, etc_mm from account_days
+               where field_id = v.id order by date desc limit 7) d
+      having count(*) > 0
+    ) w on true`;
+
+/**
+ * Rewrites fields' account days in one transaction on one connection: deletes each field's days from its
+ * date on, stores the batch's provenance documents once per field, copies `rows` in (binary COPY), drops
+ * documents no day uses any more, refreshes the fields' latest-day rows, and clears the marks whose
+ * counter is unchanged (compare-and-set). Returns the ids cleared.
+ *
+ * account_days has no foreign keys (two key checks per row cost more than the rest of the write): the
+ * transaction takes the key-share locks a key check would, so a field or planting deleted meanwhile waits
+ * for it, and one already gone has its rows dropped or unlinked here, as the triggers do on delete.
  */
 export async function rewriteAccountDays(
   deleteFrom: readonly { fieldId: string; fromDate: string }[],
-  rows: AccountColumns,
+  rows: AccountDayRows,
   marks: readonly { fieldId: string; seq: number }[],
   conn: Knex = db,
 ): Promise<string[]> {
-  const statements: string[] = [];
-  if (deleteFrom.length > 0) {
-    statements.push(
-      `delete from account_days a using unnest(${plainArray(deleteFrom.map((d) => d.fieldId), "uuid")}, ${plainArray(deleteFrom.map((d) => d.fromDate), "date")}) ` +
-        "as v(field_id, from_date) where a.field_id = v.field_id and a.date >= v.from_date",
-    );
-  }
-  if (rows.fieldId.length > 0) {
-    const names = FLOAT_COLUMNS.map(([c]) => c).join(", ");
-    statements.push(
-      `insert into account_days (field_id, date, planting_id, ${names}, soil_check_reset, provenance) ` +
-        `select v.field_id, v.date, v.planting_id, ${FLOAT_COLUMNS.map(([c]) => `v.${c}`).join(", ")}, v.soil_check_reset, p.doc ` +
-        `from unnest(${plainArray(rows.fieldId, "uuid")}, ${plainArray(rows.date, "date")}, ${plainArray(rows.plantingId, "uuid")}, ` +
-        `${FLOAT_COLUMNS.map(([, key]) => plainArray(rows[key] as number[], "float8")).join(", ")}, ` +
-        `${plainArray(rows.soilCheckReset.map((b) => (b ? "t" : "f")), "boolean")}, ${plainArray(rows.provenanceIndex, "int")}) ` +
-        `as v(field_id, date, planting_id, ${names}, soil_check_reset, provenance_index) ` +
-        `join (select ord::int as idx, t.doc::jsonb as doc from unnest(${textArray(rows.provenanceTexts)}) with ordinality as t(doc, ord)) p ` +
-        "on p.idx = v.provenance_index",
-    );
-  }
-  if (marks.length > 0) {
-    statements.push(
-      `update fields f set account_dirty_from = null from unnest(${plainArray(marks.map((m) => m.fieldId), "uuid")}, ` +
-        `${plainArray(marks.map((m) => m.seq), "bigint")}) as v(id, seq) where f.id = v.id and f.account_dirty_seq = v.seq returning f.id`,
-    );
-  }
-  if (statements.length === 0) return [];
-  let res: { rows?: { id: string }[] } | { rows?: { id: string }[] }[];
+  if (deleteFrom.length === 0 && rows.length === 0 && marks.length === 0) return [];
+  const ids = rows.ids();
+  const pairs = rows.documentsByField();
+  const fieldIds = [...new Set([...deleteFrom.map((d) => d.fieldId), ...ids.fieldIds])];
+  const plantingIds = ids.plantingIds;
+
+  const client = (await conn.client.acquireConnection()) as PoolClient;
+  const q = async <R extends Record<string, unknown>>(sql: string, values?: unknown[]) => (await client.query<R>(sql, values)).rows;
   try {
-    res = (await conn.raw(statements.join(";\n"))) as typeof res;
+    await q("begin");
+    const live = new Set((await q<{ id: string }>("select id from fields where id = any($1::uuid[]) order by id for key share", [fieldIds])).map((r) => r.id));
+    const livePlantings = plantingIds.length
+      ? new Set((await q<{ id: string }>("select id from plantings where id = any($1::uuid[]) order by id for key share", [plantingIds])).map((r) => r.id))
+      : new Set<string>();
+    const dropped = deleteFrom.length
+      ? await q<{ field_id: string; provenance_id: string }>(
+          "with d as (delete from account_days a using unnest($1::uuid[], $2::date[]) as v(field_id, from_date) " +
+            "where a.field_id = v.field_id and a.date >= v.from_date returning a.field_id, a.provenance_id) " +
+            "select distinct field_id, replace(provenance_id::text, '-', '') as provenance_id from d",
+          [deleteFrom.map((d) => d.fieldId), deleteFrom.map((d) => d.fromDate)],
+        )
+      : [];
+    const kept = pairs.fieldIds.map((f, k) => (live.has(f) ? k : -1)).filter((k) => k >= 0);
+    if (kept.length) {
+      // The documents go as one JSON array, each parsed once; a field's documents are keyed by their hash,
+      // so a rewrite finds most of them stored already.
+      await q(
+        "insert into account_provenance (field_id, id, doc) select v.field_id, (d.ids)[d.ord], d.doc " +
+          "from unnest($1::uuid[], $2::int[]) as v(field_id, idx) " +
+          "join (select t.ord::int, $4::uuid[] as ids, t.doc from jsonb_array_elements($3::jsonb) with ordinality as t(doc, ord)) d " +
+          "on d.ord = v.idx on conflict do nothing",
+        [kept.map((k) => pairs.fieldIds[k]), kept.map((k) => pairs.docs[k]! + 1), `[${rows.provenanceTexts.join(",")}]`, rows.provenanceIds],
+      );
+    }
+    if (rows.length) await copyIn(client, COPY_DAYS, rows.copyData());
+    const used = new Set(pairs.fieldIds.map((f, k) => `${f}|${rows.provenanceIds[pairs.docs[k]!]}`));
+    const unused = dropped.filter((d) => !used.has(`${d.field_id}|${d.provenance_id}`));
+    if (unused.length) {
+      await q(
+        "delete from account_provenance p using unnest($1::uuid[], $2::uuid[]) as c(field_id, id) " +
+          "where p.field_id = c.field_id and p.id = c.id " +
+          "and not exists (select 1 from account_days a where a.field_id = c.field_id and a.provenance_id = c.id)",
+        [unused.map((d) => d.field_id), unused.map((d) => d.provenance_id)],
+      );
+    }
+    const gone = fieldIds.filter((f) => !live.has(f));
+    if (gone.length) await q("delete from account_days where field_id = any($1::uuid[])", [gone]);
+    const unlinked = plantingIds.filter((p) => !livePlantings.has(p));
+    if (unlinked.length) {
+      await q("update account_days set planting_id = null where field_id = any($1::uuid[]) and planting_id = any($2::uuid[])", [fieldIds, unlinked]);
+    }
+    const liveIds = fieldIds.filter((f) => live.has(f));
+    await q("delete from account_latest where field_id = any($1::uuid[])", [liveIds]);
+    await q(`insert into account_latest (field_id, date, planting_id, depletion_end_mm, taw_mm, raw_mm, recent_etc_mm) ${LATEST_SELECT}`, [liveIds]);
+    const cleared = marks.length
+      ? await q<{ id: string }>(
+          "update fields f set account_dirty_from = null from unnest($1::uuid[], $2::bigint[]) as v(id, seq) " +
+            "where f.id = v.id and f.account_dirty_seq = v.seq returning f.id",
+          [marks.map((m) => m.fieldId), marks.map((m) => m.seq)],
+        )
+      : [];
+    await q("commit");
+    return cleared.map((r) => r.id);
   } catch (err) {
+    await client.query("rollback").catch(() => undefined);
     throw shortError(err);
+  } finally {
+    await conn.client.releaseConnection(client);
   }
-  const last = Array.isArray(res) ? res[res.length - 1] : res;
-  return marks.length > 0 ? (last?.rows ?? []).map((r) => r.id) : [];
 }
 
 /**
@@ -222,15 +426,22 @@ export function toStoredAccountDay(r: Row): StoredAccountDay {
   };
 }
 
+/** Account days with their provenance document (stored once per field in account_provenance). */
+function withProvenance(conn: Knex) {
+  return conn("account_days as a")
+    .leftJoin("account_provenance as p", (j) => j.on("p.field_id", "a.field_id").andOn("p.id", "a.provenance_id"))
+    .select("a.*", "p.doc as provenance");
+}
+
 /** A field's account days from `from` to `to`, oldest first. */
 export async function listAccountDays(fieldId: string, from: string, to: string, conn: Knex = db): Promise<StoredAccountDay[]> {
-  const rows = (await conn("account_days").where("field_id", fieldId).whereBetween("date", [from, to]).orderBy("date")) as Row[];
+  const rows = (await withProvenance(conn).where("a.field_id", fieldId).whereBetween("a.date", [from, to]).orderBy("a.date")) as Row[];
   return rows.map(toStoredAccountDay);
 }
 
 /** The latest stored days of a field (newest first). */
 export async function latestAccountDays(fieldId: string, limit: number, conn: Knex = db): Promise<StoredAccountDay[]> {
-  const rows = (await conn("account_days").where("field_id", fieldId).orderBy("date", "desc").limit(limit)) as Row[];
+  const rows = (await withProvenance(conn).where("a.field_id", fieldId).orderBy("a.date", "desc").limit(limit)) as Row[];
   return rows.map(toStoredAccountDay);
 }
 
@@ -277,20 +488,14 @@ export interface FieldStatusRow {
 
 /**
  * Every live field of a farm with its latest stored day and the mean crop ET of its last seven stored
- * days, in one statement: one backward scan of seven entries per field on the account's primary key.
+ * days, from account_latest (one row per field, kept by the recompute's rewrite).
  */
 export async function farmStatusRows(farmId: string, conn: Knex = db): Promise<FieldStatusRow[]> {
   const res = await conn.raw<{ rows: Row[] }>(
-    `select f.id, f.name, f.account_dirty_from, a.date, a.depletion_end_mm, a.taw_mm, a.raw_mm, p.mad, a.etc
+    `select f.id, f.name, f.account_dirty_from, l.date, l.depletion_end_mm, l.taw_mm, l.raw_mm, p.mad, l.recent_etc_mm as etc
        from fields f
-       left join lateral (
-         select max(w.date) as date, (array_agg(w.depletion_end_mm order by w.date desc))[1] as depletion_end_mm,
-                (array_agg(w.taw_mm order by w.date desc))[1] as taw_mm, (array_agg(w.raw_mm order by w.date desc))[1] as raw_mm,
-                (array_agg(w.planting_id order by w.date desc))[1] as planting_id, avg(w.etc_mm) as etc
-           from (select date, depletion_end_mm, taw_mm, raw_mm, planting_id, etc_mm from account_days
-                  where field_id = f.id order by date desc limit 7) w
-       ) a on true
-       left join plantings p on p.id = a.planting_id
+       left join account_latest l on l.field_id = f.id
+       left join plantings p on p.id = l.planting_id
       where f.farm_id = ? and f.archived_at is null
       order by f.name`,
     [farmId],

@@ -1,11 +1,11 @@
 import "server-only";
-import { carriedDepletions, rewriteAccountDays } from "@/db/accounts";
+import { AccountDayRows, carriedDepletions, rewriteAccountDays } from "@/db/accounts";
 import { loadFarmObservations, loadFarmSetup, type AccountField, type AccountPlanting } from "@/db/account-inputs";
 import { db } from "@/db/knex";
 import { farmToday } from "@/lib/farm-time";
 import { addDaysIso, computeFieldSeason, WaterBalanceInputError } from "@/lib/waterbalance";
 import { buildFarmContext, buildFieldRun, byFieldId } from "./inputs";
-import { appendRunColumns, emptyColumns, ProvenanceWriter, truncateColumns } from "./rows";
+import { appendRunDays, ProvenanceWriter } from "./rows";
 import { StationEtoCache } from "./station-eto";
 
 /**
@@ -112,22 +112,22 @@ export async function recomputeFarm(farmId: string, options: RecomputeOptions = 
   for (let b = 0; b < setup.fields.length; b += batchSize) {
     if (failure) break;
     const batch = setup.fields.slice(b, b + batchSize);
-    const rows = emptyColumns();
+    const rows = new AccountDayRows(batch.length * 366);
     const deleteFrom: { fieldId: string; fromDate: string }[] = [];
     const marks: { fieldId: string; seq: number }[] = [];
     for (let k = 0; k < batch.length; k++) {
       const f = batch[k]!;
       // Let the previous batch's statement drain onto the socket while this one is computed.
       if (k % 25 === 24) await new Promise((resolve) => setImmediate(resolve));
-      const mark = rows.fieldId.length;
+      const mark = rows.length;
       const outcome = computeField(f, plans.get(f.id) ?? [], (segment) => {
         const run = buildFieldRun(ctx, etoCache, f, segment.planting, { from: segment.from, to: segment.to, initialDepletionMm: segment.initialDepletionMm ?? 0 }, byField);
         if (!run) return "no soil or no weather station with days";
-        return appendRunColumns(rows, run, computeFieldSeason(run.input), writer);
+        return appendRunDays(rows, run, computeFieldSeason(run.input), writer);
       });
       if (typeof outcome === "string") {
         result.skipped.push({ fieldId: f.id, reason: outcome });
-        truncateColumns(rows, mark);
+        rows.truncate(mark);
         if (!outcome.startsWith("no soil")) continue;
       } else result.days += outcome;
       const segs = plans.get(f.id) ?? [];

@@ -1,27 +1,14 @@
 import { curveNumberForCondition, type FieldSeasonColumns, type RunoffProvenance } from "@/lib/waterbalance";
-import type { AccountColumns } from "@/db/accounts";
+import type { AccountDayRows } from "@/db/accounts";
 import type { FieldRun } from "./inputs";
 import { nextIsoDate } from "./station-eto";
 
 /**
- * The engine's computed columns turned into account_days rows, column by column, with each day's
- * provenance as JSON text. Most days of a farm share their provenance pieces (the same ETo method, the
- * same gauges and weights), so each piece is serialised once and reused by identity.
+ * The engine's computed columns handed to the account_days writer run by run, with each day's provenance
+ * as JSON text. Most days of a farm share their provenance pieces (the same ETo method, the same gauges
+ * and weights), so each piece is serialised once and reused by identity, and a day whose pieces are
+ * those of the day before reuses its document without building a key.
  */
-
-export function emptyColumns(): AccountColumns {
-  return {
-    fieldId: [], date: [], plantingId: [], etoMm: [], kc: [], etcMm: [], ks: [], etActualMm: [], rainMm: [], runoffMm: [],
-    effectiveRainMm: [], irrigationGrossMm: [], irrigationNetMm: [], capillaryRiseMm: [], deepPercolationMm: [],
-    depletionStartMm: [], depletionEndMm: [], tawMm: [], rawMm: [], pAdjusted: [], rootDepthM: [], soilCheckReset: [],
-    provenanceIndex: [], provenanceTexts: [],
-  };
-}
-
-/** Drops rows from `length` on (a field whose later stretch failed leaves none of its rows behind). */
-export function truncateColumns(cols: AccountColumns, length: number): void {
-  for (const [key, list] of Object.entries(cols) as [keyof AccountColumns, unknown[]][]) if (key !== "provenanceTexts") list.length = length;
-}
 
 const CONDITIONS = ["dry", "average", "wet"] as const;
 const IRRIGATION_BASIS = ["none", "gross", "net", "mixed"] as const;
@@ -36,7 +23,7 @@ export class ProvenanceWriter {
   private readonly pieces = new WeakMap<object, { id: number; json: string }>();
   private nextId = 1;
   private documents = new Map<string, number>();
-  private batch: AccountColumns | null = null;
+  private batch: AccountDayRows | null = null;
 
   piece(o: object): { id: number; json: string } {
     let p = this.pieces.get(o);
@@ -47,29 +34,28 @@ export class ProvenanceWriter {
     return p;
   }
 
-  /** The 1-based index of the document with `key` among `out`'s distinct documents; `build` makes its text. */
-  index(out: AccountColumns, key: string, build: () => string): number {
+  /** The index of the document with `key` among `out`'s distinct documents; `build` makes its text. */
+  index(out: AccountDayRows, key: string, build: () => string): number {
     if (this.batch !== out) {
       this.batch = out;
       this.documents = new Map();
     }
     let k = this.documents.get(key);
     if (k === undefined) {
-      out.provenanceTexts.push(build());
-      k = out.provenanceTexts.length;
+      k = out.addProvenance(build());
       this.documents.set(key, k);
     }
     return k;
   }
 }
 
-/** Appends a computed run's days to `out`. */
-export function appendRunColumns(out: AccountColumns, run: FieldRun, cols: FieldSeasonColumns, writer: ProvenanceWriter): number {
+/** Appends a computed run's days to `out`; returns how many. */
+export function appendRunDays(out: AccountDayRows, run: FieldRun, cols: FieldSeasonColumns, writer: ProvenanceWriter): number {
   const { crop, water, loop } = cols;
   const n = crop.n;
   const dual = crop.dual !== null;
   const fieldId = run.field.id;
-  const plantingId = run.planting.id;
+  const startDate = run.input.startDate;
   // The engine's curve-number provenance names the condition's curve number; one object per condition.
   const cnProv: (RunoffProvenance | null)[] = CONDITIONS.map((condition) =>
     water.curveNumberAverage === null
@@ -82,41 +68,40 @@ export function appendRunColumns(out: AccountColumns, run: FieldRun, cols: Field
           source: water.curveNumberSource,
         },
   );
-  let date = run.input.startDate;
+  let kc = crop.kc;
+  if (dual) {
+    kc = new Float64Array(n);
+    for (let d = 0; d < n; d++) kc[d] = crop.kc[d]! + loop.ke[d]!;
+  }
+  const docs = new Int32Array(n);
+  const hasQc = run.qc.size > 0;
+  let date = startDate;
+  // The pieces of the last shared document: a day with the same pieces takes the same document.
+  let prevDoc = -1;
+  let prevEto: object | null = null;
+  let prevRain: object | null = null;
+  let prevRunoff: object | null = null;
+  let prevIrrigation = -1;
+  let prevStage: string | undefined;
   for (let d = 0; d < n; d++) {
-    out.fieldId.push(fieldId);
-    out.date.push(date);
-    out.plantingId.push(plantingId);
-    out.etoMm.push(crop.etoMm[d]!);
-    out.kc.push(dual ? crop.kc[d]! + loop.ke[d]! : crop.kc[d]!);
-    out.etcMm.push(loop.etcMm[d]!);
-    out.ks.push(loop.ks[d]!);
-    out.etActualMm.push(loop.etcAdjMm[d]!);
-    out.rainMm.push(water.rainMm[d]!);
-    out.runoffMm.push(loop.runoffMm[d]!);
-    out.effectiveRainMm.push(loop.effectiveRainMm[d]!);
-    out.irrigationGrossMm.push(water.irrigationGrossMm[d]!);
-    out.irrigationNetMm.push(water.irrigationNetMm[d]!);
-    out.capillaryRiseMm.push(water.capillaryRiseMm[d]!);
-    out.deepPercolationMm.push(loop.deepPercolationMm[d]!);
-    out.depletionStartMm.push(loop.depletionStartMm[d]!);
-    out.depletionEndMm.push(loop.depletionEndMm[d]!);
-    out.tawMm.push(crop.tawMm[d]!);
-    out.rawMm.push(loop.rawMm[d]!);
-    out.pAdjusted.push(loop.pAdjusted[d]!);
-    out.rootDepthM.push(crop.rootDepthM[d]!);
     const reset = loop.soilCheckApplied[d] === 1;
-    out.soilCheckReset.push(reset);
-
-    const storm = cols.runoffProvenance[d];
     const cond = loop.condition[d]!;
-    const cn = cond >= 0 ? cnProv[cond] : null;
-    const runoff = storm ? writer.piece(storm) : cn ? writer.piece(cn) : NONE;
-    const eto = writer.piece(run.eto.provenance[d]!);
-    const rain = writer.piece(run.rainSources[d]!);
-    const irrigation = IRRIGATION_BASIS[water.irrigationBasis[d]!];
+    const runoffObj = cols.runoffProvenance[d] ?? (cond >= 0 ? cnProv[cond]! : null);
+    const etoObj = run.eto.provenance[d]!;
+    const rainObj = run.rainSources[d]!;
+    const basis = water.irrigationBasis[d]!;
     const stage = crop.stage[d];
-    const qc = run.qc.get(date);
+    const qc = hasQc ? run.qc.get(date) : undefined;
+    if (hasQc) date = nextIsoDate(date);
+    const own = dual || reset || qc !== undefined;
+    if (!own && prevDoc >= 0 && etoObj === prevEto && rainObj === prevRain && runoffObj === prevRunoff && basis === prevIrrigation && stage === prevStage) {
+      docs[d] = prevDoc;
+      continue;
+    }
+    const runoff = runoffObj ? writer.piece(runoffObj) : NONE;
+    const eto = writer.piece(etoObj);
+    const rain = writer.piece(rainObj);
+    const irrigation = IRRIGATION_BASIS[basis];
     const build = (): string => {
       let json = `{"eto":${eto.json},"rain":${rain.json},"runoff":${runoff.json},"irrigation":"${irrigation}","stage":"${stage}"`;
       if (dual) json += `,"kcb":${crop.kc[d]},"ke":${loop.ke[d]}`;
@@ -125,9 +110,44 @@ export function appendRunColumns(out: AccountColumns, run: FieldRun, cols: Field
       return json + "}";
     };
     // Days with their own numbers in the document (dual coefficient, soil-check resets) are never shared.
-    const key = dual || reset ? `${fieldId}${date}` : `${eto.id},${rain.id},${runoff.id},${irrigation},${stage}${qc ? qc.join() : ""}`;
-    out.provenanceIndex.push(writer.index(out, key, build));
-    date = nextIsoDate(date);
+    const key = dual || reset ? `${fieldId}|${startDate}|${d}` : `${eto.id},${rain.id},${runoff.id},${irrigation},${stage}${qc ? qc.join() : ""}`;
+    const doc = writer.index(out, key, build);
+    docs[d] = doc;
+    if (own) prevDoc = -1;
+    else {
+      prevDoc = doc;
+      prevEto = etoObj;
+      prevRain = rainObj;
+      prevRunoff = runoffObj;
+      prevIrrigation = basis;
+      prevStage = stage;
+    }
   }
+  out.append({
+    fieldId,
+    plantingId: run.planting.id,
+    startDate,
+    days: n,
+    etoMm: crop.etoMm,
+    kc,
+    etcMm: loop.etcMm,
+    ks: loop.ks,
+    etActualMm: loop.etcAdjMm,
+    rainMm: water.rainMm,
+    runoffMm: loop.runoffMm,
+    effectiveRainMm: loop.effectiveRainMm,
+    irrigationGrossMm: water.irrigationGrossMm,
+    irrigationNetMm: water.irrigationNetMm,
+    capillaryRiseMm: water.capillaryRiseMm,
+    deepPercolationMm: loop.deepPercolationMm,
+    depletionStartMm: loop.depletionStartMm,
+    depletionEndMm: loop.depletionEndMm,
+    tawMm: crop.tawMm,
+    rawMm: loop.rawMm,
+    pAdjusted: loop.pAdjusted,
+    rootDepthM: crop.rootDepthM,
+    soilCheckReset: loop.soilCheckApplied,
+    provenance: docs,
+  });
   return n;
 }

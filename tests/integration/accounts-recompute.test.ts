@@ -38,7 +38,13 @@ afterAll(async () => {
 });
 
 type Stored = Record<string, number | string | boolean | null | Record<string, unknown>>;
-const storedDays = async (fieldId: string): Promise<Stored[]> => (await db("account_days").where({ field_id: fieldId }).orderBy("date")) as Stored[];
+/** A field's stored days, each with its provenance document (kept once per field in account_provenance). */
+const storedDays = async (fieldId: string): Promise<Stored[]> =>
+  (await db("account_days as a")
+    .leftJoin("account_provenance as p", (j) => j.on("p.field_id", "a.field_id").andOn("p.id", "a.provenance_id"))
+    .where("a.field_id", fieldId)
+    .orderBy("a.date")
+    .select("a.*", "p.doc as provenance")) as Stored[];
 
 /** The engine's input for a fixture field, written out by hand from the fixture's values (not through the loader). */
 function engineInput(which: "a" | "b" | "c", extraG1: Record<number, number> = {}): FieldAccountInput {
