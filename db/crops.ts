@@ -133,11 +133,12 @@ export async function updateCrop(farmId: string, userId: string, id: string, pat
     const row = await ownRow(trx, farmId, id, "changed");
     if (!row) return undefined;
     const before = toCrop(row);
-    const values = cropSchema.parse({ ...valuesOf(before), ...patch });
+    const { reason, ...changes } = patch;
+    const values = cropSchema.parse({ ...valuesOf(before), ...changes });
     if (values.name !== before.name) await checkNameFree(trx, farmId, values.name, id);
     const [updated] = (await trx("crops").where({ id }).update({ ...toColumns(values), updated_by: userId }).returning("*")) as Row[];
     const after = toCrop(updated!);
-    await audit({ farmId, userId, action: "update", entity: "crop", entityId: id, before, after }, trx);
+    await audit({ farmId, userId, action: "update", entity: "crop", entityId: id, before, after, reason: reason ?? null }, trx);
     let dirty = false;
     if (CROP_ACCOUNT_KEYS.some((k) => before[k] !== after[k])) {
       // Each planting of this crop is stale from its own planting date.

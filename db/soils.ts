@@ -158,11 +158,12 @@ export async function updateSoil(farmId: string, userId: string, id: string, pat
     const row = await ownRow(trx, farmId, id, "changed");
     if (!row) return undefined;
     const before = toSoil(row);
-    const values = soilSchema.parse({ ...valuesOf(before), ...patch });
+    const { reason, ...changes } = patch;
+    const values = soilSchema.parse({ ...valuesOf(before), ...changes });
     if (values.name !== before.name) await checkNameFree(trx, farmId, values.name, id);
     const [updated] = (await trx("soils").where({ id }).update({ ...toColumns(values), updated_by: userId }).returning("*")) as Row[];
     const after = toSoil(updated!);
-    await audit({ farmId, userId, action: "update", entity: "soil", entityId: id, before, after }, trx);
+    await audit({ farmId, userId, action: "update", entity: "soil", entityId: id, before, after, reason: reason ?? null }, trx);
     let dirty = false;
     if (SOIL_ACCOUNT_KEYS.some((k) => before[k] !== after[k])) {
       const fieldIds = (await trx("fields").where({ farm_id: farmId, soil_id: id }).pluck("id")) as string[];

@@ -35,13 +35,14 @@ function Values({ row, keys, sources }: { row: Row; keys: readonly string[]; sou
 
 function EditForm({ farmId, kind, row, keys, onDone }: { farmId: string; kind: Kind; row: Row; keys: readonly string[]; onDone: () => void }) {
   const [values, setValues] = useState<Record<string, string>>(Object.fromEntries(keys.map((k) => [k, row[k] === null ? "" : String(row[k])])));
+  const [reason, setReason] = useState("");
   const [error, setError] = useState<ApiError | null>(null);
   const [busy, setBusy] = useState(false);
   async function submit(e: React.FormEvent) {
     e.preventDefault();
     setBusy(true);
     setError(null);
-    const patch = Object.fromEntries(keys.map((k) => [k, values[k]!.trim() === "" ? null : Number(values[k])]));
+    const patch = { ...Object.fromEntries(keys.map((k) => [k, values[k]!.trim() === "" ? null : Number(values[k])])), reason };
     try {
       await sendJson(`/api/v1/farms/${farmId}/${kind}/${row.id}`, "PATCH", patch);
       onDone();
@@ -73,10 +74,21 @@ function EditForm({ farmId, kind, row, keys, onDone }: { farmId: string; kind: K
           </div>
         ))}
       </div>
+      <label htmlFor={`${row.id}-reason`} className="text-sm font-bold">
+        Why this change? (required; kept in the history)
+      </label>
+      <input
+        id={`${row.id}-reason`}
+        value={reason}
+        onChange={(e) => setReason(e.target.value)}
+        aria-invalid={error?.fields.reason ? true : undefined}
+        className="tap rounded-xl border border-river-300 bg-white px-3 py-2 text-base"
+      />
+      {error?.fields.reason && <p className="text-sm font-bold text-clay-700">{error.fields.reason}</p>}
       {error && <Notice tone="problem">{error.message}</Notice>}
       <p className="text-sm text-ink/70">Every planting of this {kind === "crops" ? "crop" : "soil"} is recomputed after a change. The values are estimates; confirm them in the field.</p>
       <div className="flex gap-2">
-        <Button type="submit" disabled={busy}>
+        <Button type="submit" disabled={busy || reason.trim().length < 3}>
           {busy ? "Saving…" : "Save"}
         </Button>
         <Button type="button" variant="secondary" onClick={onDone}>

@@ -1,4 +1,5 @@
 import { z } from "zod";
+import { changeReasonSchema } from "./crop";
 import { plantingShape } from "./planting";
 
 /** The values of a planting's crop curve the agronomy screen edits; null = the crop's own value. */
@@ -29,11 +30,7 @@ function rootsInOrder(v: { rootMinM?: number | null; rootMaxM?: number | null },
 export const curveEditSchema = z.strictObject(curveShape).partial().superRefine(rootsInOrder);
 export type CurveEdit = z.infer<typeof curveEditSchema>;
 
-export const reasonSchema = z
-  .string({ error: "Say why the change is made" })
-  .trim()
-  .min(3, "Say why the change is made (at least 3 characters)")
-  .max(500, "Keep the reason to 500 characters");
+export const reasonSchema = changeReasonSchema;
 
 /** Saving a tuned curve: the changes and why (required; it goes into the audit history). */
 export const curveSaveSchema = z.strictObject({

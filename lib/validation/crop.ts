@@ -64,7 +64,15 @@ export const cropCreateSchema = z
   .superRefine(cropOrder);
 export type CropCreate = z.infer<typeof cropCreateSchema>;
 
-export const cropPatchSchema = z.strictObject(cropShape).partial().superRefine(cropOrder);
+/** Why a farm's soil, crop or planting was changed; kept with the change in the audit history. */
+export const changeReasonSchema = z
+  .string({ error: "Say why the change is made" })
+  .trim()
+  .min(3, "Say why the change is made (at least 3 characters)")
+  .max(500, "Keep the reason to 500 characters");
+
+/** A change of a farm crop; `reason` (optional here) goes into the audit history, not the crop. */
+export const cropPatchSchema = z.strictObject({ ...cropShape, reason: changeReasonSchema }).partial().superRefine(cropOrder);
 export type CropPatch = z.infer<typeof cropPatchSchema>;
 
 /** Values that feed the water account of every field planted with this crop. */

@@ -1,5 +1,6 @@
 import { z } from "zod";
 import { SOIL_TEXTURES, type TextureId } from "@/lib/waterbalance";
+import { changeReasonSchema } from "./crop";
 import { clientIdSchema, nameSchema, noteSchema, quantity } from "./farm";
 
 /** The engine's texture ids (lib/waterbalance/soils.ts); the database refuses any other. */
@@ -73,7 +74,8 @@ export const soilCreateSchema = z
   });
 export type SoilCreate = z.infer<typeof soilCreateSchema>;
 
-export const soilPatchSchema = z.strictObject(soilShape).partial().superRefine(soilOrder);
+/** A change of a farm soil; `reason` (optional here) goes into the audit history, not the soil. */
+export const soilPatchSchema = z.strictObject({ ...soilShape, reason: changeReasonSchema }).partial().superRefine(soilOrder);
 export type SoilPatch = z.infer<typeof soilPatchSchema>;
 
 /** The values that change a field's water account when they change. */

@@ -185,14 +185,14 @@ describe("who may tune", () => {
       method: "PATCH",
       as: a,
       params: { farmId: farm.farmId, cropId: farm.ids.crop },
-      body: { kcEnd: 0.4 },
+      body: { kcEnd: 0.4, reason: "Harvested green, not dried in the field" },
     });
     expect(crop.status).toBe(200);
-    const hist = await call<{ data: { before: { kcEnd: number }; after: { kcEnd: number } }[] }>(cropHistory.GET, `/api/v1/farms/${farm.farmId}/crops/${farm.ids.crop}/history`, {
+    const hist = await call<{ data: { reason: string; before: { kcEnd: number }; after: { kcEnd: number } }[] }>(cropHistory.GET, `/api/v1/farms/${farm.farmId}/crops/${farm.ids.crop}/history`, {
       as: a,
       params: { farmId: farm.farmId, cropId: farm.ids.crop },
     });
-    expect(hist.body.data[0]).toMatchObject({ before: { kcEnd: 0.35 }, after: { kcEnd: 0.4 } });
+    expect(hist.body.data[0]).toMatchObject({ reason: "Harvested green, not dried in the field", before: { kcEnd: 0.35 }, after: { kcEnd: 0.4 } });
     const system = await call(systemItem.PATCH, `/api/v1/farms/${farm.farmId}/systems/${farm.ids.s1}`, {
       method: "PATCH",
       as: a,
