@@ -37,6 +37,7 @@ interface SumRow {
   planting_id: string | null;
   month: string;
   days: number;
+  last_date: string;
   rain_mm: number;
   runoff_mm: number;
   effective_rain_mm: number;
@@ -55,6 +56,7 @@ function toAccountSums(r: SumRow): AccountSums {
     plantingId: r.planting_id,
     month: r.month,
     days: Number(r.days),
+    lastDate: r.last_date,
     rainMm: Number(r.rain_mm),
     runoffMm: Number(r.runoff_mm),
     effectiveRainMm: Number(r.effective_rain_mm),
@@ -93,6 +95,7 @@ export async function sumAccountDays(
       "a.planting_id",
       db.raw("to_char(a.date, 'YYYY-MM') as month"),
       db.raw("count(*)::int as days"),
+      db.raw("max(a.date) as last_date"),
       ...SUMMED.map((c) => db.raw(`coalesce(sum(a.${c}), 0)::float8 as ${c}`)),
       db.raw("sum(a.depletion_start_mm - a.depletion_end_mm)::float8 as storage_change_mm"),
     )) as SumRow[];

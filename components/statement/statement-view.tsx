@@ -12,7 +12,7 @@ import { ALLOCATION_WORDS, STATEMENT_CAUTION, formatNumber, formatShare, periodS
 import { monthLabel } from "@/lib/statement/period";
 import { TERMS, TERM_LABELS, type Quantity } from "@/lib/statement/totals";
 import type { Statement } from "@/lib/statement/types";
-import { depthUnit, depthValue, type UnitSystem } from "@/lib/units";
+import { depthUnit, depthValue, formatLocalDate, type UnitSystem } from "@/lib/units";
 import { AllocationChart } from "./allocation-chart";
 
 function depth(mm: number, units: UnitSystem): string {
@@ -318,7 +318,8 @@ export function StatementView({ farmId, initialUnits }: { farmId: string; initia
           {s.farm.name}: {s.field ? s.field.name : "whole farm"}. {periodTitle(s.period)}, {periodSpan(s.period)}.
         </p>
         <p className="text-sm text-ink/75">
-          {formatNumber(s.totals.areaHa, 1)} ha, {s.totals.fieldDays} field-days of the water account. Made on {s.madeOn}.
+          {formatNumber(s.totals.areaHa, 1)} ha, {s.totals.fieldDays} field-days of the water account
+          {s.totals.lastDate ? `, up to ${formatLocalDate(s.totals.lastDate, "long")}` : ""}. Made on {s.madeOn}.
         </p>
       </div>
 

@@ -40,6 +40,7 @@ export function statementCsv(s: Statement): string {
     { section: "statement", item: "from", value: s.period.from },
     { section: "statement", item: "to", value: s.period.to },
     { section: "statement", item: "made_on", value: s.madeOn },
+    { section: "statement", item: "last_account_day", value: s.totals.lastDate ?? "" },
     { section: "statement", item: "area", value: round(s.totals.areaHa, 2), unit: "ha" },
     { section: "statement", item: "field_days", value: s.totals.fieldDays, unit: "days" },
     { section: "statement", item: "note", value: "estimates from the daily water account; confirm with meters and field checks" },

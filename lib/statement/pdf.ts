@@ -76,7 +76,10 @@ export function statementPdf(s: Statement): Promise<Buffer> {
   doc.font(BOLD).fontSize(18).fillColor(INK).text("Season water statement");
   doc.font(REGULAR).fontSize(11).text(`${s.farm.name}: ${s.field ? s.field.name : "whole farm"}`);
   doc.fontSize(10).fillColor(MUTED).text(`${periodTitle(s.period)}, ${periodSpan(s.period)}. Made on ${s.madeOn}.`);
-  doc.text(`Area ${formatNumber(s.totals.areaHa, 1)} ha over ${s.totals.fieldDays} field-days of the water account.`);
+  doc.text(
+    `Area ${formatNumber(s.totals.areaHa, 1)} ha over ${s.totals.fieldDays} field-days of the water account` +
+      (s.totals.lastDate ? `, up to ${s.totals.lastDate}.` : "; no account day yet."),
+  );
   doc.moveDown(0.6);
   paragraph(doc, STATEMENT_CAUTION, WARN);
 

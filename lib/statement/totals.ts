@@ -12,6 +12,8 @@ export interface AccountSums {
   /** 'YYYY-MM' */
   month: string;
   days: number;
+  /** the last of these days, ISO local date */
+  lastDate: string;
   rainMm: number;
   runoffMm: number;
   effectiveRainMm: number;
@@ -27,7 +29,7 @@ export interface AccountSums {
   storageChangeMm: number;
 }
 
-export type SumKey = Exclude<keyof AccountSums, "fieldId" | "plantingId" | "month" | "days">;
+export type SumKey = Exclude<keyof AccountSums, "fieldId" | "plantingId" | "month" | "days" | "lastDate">;
 export const SUM_KEYS: readonly SumKey[] = [
   "rainMm",
   "runoffMm",
@@ -110,6 +112,8 @@ export interface Totals {
   areaHa: number;
   /** account days added, one per field per day */
   fieldDays: number;
+  /** the last account day added, or null when there is none */
+  lastDate: string | null;
   lines: Record<Term, Quantity>;
   /**
    * What the balance leaves unexplained: (effective rain + net irrigation + capillary rise) − (crop ET +
@@ -131,12 +135,14 @@ export function totalsOf(rows: readonly AccountSums[], areaHaByField: ReadonlyMa
   for (const k of SUM_KEYS) m3[k] = 0;
   let areaHa = 0;
   let fieldDays = 0;
+  let lastDate: string | null = null;
   for (const [fieldId, fieldRows] of byField) {
     const area = areaHaByField.get(fieldId) ?? 0;
     const s = addSums(fieldRows);
     if (s.days === 0) continue;
     areaHa += area;
     fieldDays += s.days;
+    for (const r of fieldRows) if (lastDate === null || r.lastDate > lastDate) lastDate = r.lastDate;
     for (const k of SUM_KEYS) m3[k] += volumeM3(s[k], area);
   }
   const q = (v: number) => quantityOf(v, areaHa);
@@ -144,6 +150,7 @@ export function totalsOf(rows: readonly AccountSums[], areaHaByField: ReadonlyMa
   return {
     areaHa,
     fieldDays,
+    lastDate,
     lines: {
       rain: q(m3.rainMm),
       runoff: q(m3.runoffMm),

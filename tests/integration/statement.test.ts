@@ -135,6 +135,8 @@ describe("GET …/statement (JSON)", () => {
     expect(s.totals.lines.irrigationGross.volumeM3).toBeGreaterThan(0);
     expect(s.totals.lines.rain.volumeM3).toBeGreaterThan(0);
     expect(s.fields.map((f) => f.name).sort()).toEqual(["A own gauge", "B nearby gauges", "C tipping bucket"]);
+    const last = (await db("account_days as a").join("fields as f", "f.id", "a.field_id").where("f.farm_id", farm.farmId).max({ d: "a.date" }).first()) as { d: string };
+    expect(s.totals.lastDate).toBe(last.d);
     expect(s.estimate).toBe(true);
   });
 

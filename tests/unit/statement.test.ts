@@ -19,6 +19,7 @@ function sums(fieldId: string, month: string, over: Partial<AccountSums>): Accou
     plantingId: null,
     month,
     days: 30,
+    lastDate: `${month}-30`,
     rainMm: 0,
     runoffMm: 0,
     effectiveRainMm: 0,

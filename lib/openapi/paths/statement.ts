@@ -16,7 +16,7 @@ const lines = z.object({
   deepPercolation: quantity,
   storageChange: quantity,
 });
-const totals = z.object({ areaHa: z.number(), fieldDays: z.number(), lines, closure: quantity });
+const totals = z.object({ areaHa: z.number(), fieldDays: z.number(), lastDate: z.iso.date().nullable(), lines, closure: quantity });
 const period = z.union([
   z.object({ kind: z.literal("water-year"), year: z.number(), label: z.string(), from: z.iso.date(), to: z.iso.date() }),
   z.object({ kind: z.literal("season"), season: z.string(), from: z.iso.date(), to: z.iso.date() }),
