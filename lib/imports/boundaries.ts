@@ -7,7 +7,6 @@ import area from "@turf/area";
 import { kml } from "@tmcw/togeojson";
 import { DOMParser } from "@xmldom/xmldom";
 import type { Feature, Geometry, MultiPolygon, Polygon, Position } from "geojson";
-import shp from "shpjs";
 import { AppError } from "@/lib/api/errors";
 import type { BoundaryOptions } from "./options";
 import { ProblemList } from "./report";
@@ -56,6 +55,9 @@ async function readFeatures(bytes: Uint8Array, format: BoundaryFormat): Promise<
       const doc = new DOMParser().parseFromString(new TextDecoder().decode(bytes), "text/xml");
       return kml(doc).features;
     }
+    // Loaded when needed, and as an ES module: required as CommonJS (the worker under tsx), shpjs hands
+    // over its browser bundle, which needs `self`.
+    const { default: shp } = await import("shpjs");
     const parsed = await shp(Buffer.from(bytes));
     return (Array.isArray(parsed) ? parsed : [parsed]).flatMap((c) => c.features);
   } catch (err) {
