@@ -270,9 +270,15 @@ function choiceValue(c: StatementChoice, s: Statement | undefined): string {
 }
 
 /** The season water statement: choose field and period, read the totals, allocation and productivity, download, print or send. */
-export function StatementView({ farmId, initialUnits }: { farmId: string; initialUnits: UnitSystem }) {
+export function StatementView({ farmId, initialUnits, initialChoice = {} }: { farmId: string; initialUnits: UnitSystem; initialChoice?: StatementChoice }) {
   const { units } = useUnits(initialUnits);
-  const [choice, setChoice] = useState<StatementChoice>({});
+  const [choice, setChoiceState] = useState<StatementChoice>(initialChoice);
+  // The address follows the choice, so a link or a reload opens the same statement.
+  const setChoice = (next: (c: StatementChoice) => StatementChoice) => {
+    const c = next(choice);
+    setChoiceState(c);
+    window.history.replaceState(null, "", `${window.location.pathname}${statementQuery(c)}`);
+  };
   const [sending, setSending] = useState(false);
   const [sent, setSent] = useState<{ ok: boolean; text: string } | null>(null);
   const { data: s, error, isLoading } = useStatement(farmId, choice);
