@@ -1,6 +1,7 @@
 // The owner's season statement on the demo farm. Figures are the demo's invented data; each check compares
 // the screen and the downloads with what the API computed (common practice, no source).
 import { readFile } from "node:fs/promises";
+import AxeBuilder from "@axe-core/playwright";
 import { expect, test, type Page } from "@playwright/test";
 import { DEMO, openKestrelBend } from "./helpers";
 
@@ -44,6 +45,11 @@ test("the owner opens the season statement, reads the totals and downloads the P
   await expect(page.getByRole("heading", { name: `Allocation, water year ${api.allocation.label}` })).toBeVisible();
   await expect(page.getByText(/estimates/i).first()).toBeVisible();
   await page.screenshot({ path: `tests/artifacts/screens/${info.project.name}-statement.png`, fullPage: true });
+
+  // Phone and desktop: the page itself never scrolls sideways (wide tables scroll inside their own box).
+  expect(await page.evaluate(() => document.documentElement.scrollWidth <= window.innerWidth)).toBe(true);
+  const axe = await new AxeBuilder({ page }).analyze();
+  expect(axe.violations.filter((v) => v.impact === "serious" || v.impact === "critical").map((v) => v.id)).toEqual([]);
 
   const [pdf] = await Promise.all([page.waitForEvent("download"), page.getByRole("link", { name: "Download PDF" }).click()]);
   expect(pdf.suggestedFilename()).toMatch(/^rootbank-statement-kestrel-bend-.+\.pdf$/);
