@@ -175,8 +175,10 @@ async function runTests(): Promise<void> {
     say(`${name}: ${status === 0 ? "passed" : "FAILED"}`);
   };
 
-  // `npm test -- browser` runs only the build and the browser tests, for quick rounds on screens.
+  // `npm test -- browser` runs only the build and the browser tests, for quick rounds on screens; any
+  // further arguments go to Playwright (`npm test -- browser tests/e2e/worker.spec.ts --project phone`).
   const browserOnly = process.argv[3] === "browser";
+  const playwrightArgs = browserOnly ? process.argv.slice(4) : [];
   if (!browserOnly) {
     step("type-check", run(NODE, ["node_modules/typescript/bin/tsc", "--noEmit"], { env: testEnv }));
     step("lint", run(NODE, ["node_modules/eslint/bin/eslint.js", "."], { env: testEnv }));
@@ -202,7 +204,7 @@ async function runTests(): Promise<void> {
   await waitForHttp(`http://localhost:${TEST_PORTS.app}/api/health`, 120_000);
   step(
     "browser tests (Playwright, Chromium)",
-    run(NODE, ["node_modules/@playwright/test/cli.js", "test"], {
+    run(NODE, ["node_modules/@playwright/test/cli.js", "test", ...playwrightArgs], {
       env: { ...testEnv, E2E_BASE_URL: `http://localhost:${TEST_PORTS.app}` },
     }),
   );
