@@ -41,13 +41,31 @@ export function toHistoryEntry(r: Row): HistoryEntry {
 }
 
 /** The audit entries of one planting, crop or soil of this farm, newest first (at most `limit`). */
-export async function listHistory(farmId: string, entity: "planting" | "crop" | "soil", entityId: string, limit = 200): Promise<HistoryEntry[]> {
+export async function listHistory(
+  farmId: string,
+  entity: "planting" | "crop" | "soil",
+  entityId: string,
+  limit = 200,
+): Promise<HistoryEntry[]> {
   const rows = (await db("audit_log as a")
     .leftJoin("users as u", "u.id", "a.user_id")
     .where({ "a.farm_id": farmId, "a.entity": entity, "a.entity_id": entityId })
-    .orderBy([{ column: "a.at", order: "desc" }, { column: "a.id", order: "desc" }])
+    .orderBy([
+      { column: "a.at", order: "desc" },
+      { column: "a.id", order: "desc" },
+    ])
     .limit(limit)
-    .select("a.id", "a.at", "a.action", "a.actor", "a.reason", "a.before", "a.after", "u.name", "u.email")) as Row[];
+    .select(
+      "a.id",
+      "a.at",
+      "a.action",
+      "a.actor",
+      "a.reason",
+      "a.before",
+      "a.after",
+      "u.name",
+      "u.email",
+    )) as Row[];
   return rows.map(toHistoryEntry);
 }
 
@@ -68,5 +86,11 @@ export async function listFieldChecks(
     method: string;
     resets_account: boolean;
   }[];
-  return rows.map((r) => ({ id: r.id, date: r.date, depletionMm: Number(r.depletion_mm), method: r.method, resetsAccount: r.resets_account }));
+  return rows.map((r) => ({
+    id: r.id,
+    date: r.date,
+    depletionMm: Number(r.depletion_mm),
+    method: r.method,
+    resetsAccount: r.resets_account,
+  }));
 }

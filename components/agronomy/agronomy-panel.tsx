@@ -22,7 +22,15 @@ const VIEWS: { id: View; label: string }[] = [
   { id: "library", label: "Soils and crops" },
 ];
 
-function PlantingTools({ farmId, plantingId, view }: { farmId: string; plantingId: string; view: Exclude<View, "library"> }) {
+function PlantingTools({
+  farmId,
+  plantingId,
+  view,
+}: {
+  farmId: string;
+  plantingId: string;
+  view: Exclude<View, "library">;
+}) {
   const planting = usePlanting(farmId, plantingId);
   const crop = useCrop(farmId, planting.data?.planting.cropId ?? null);
   const [version, setVersion] = useState(0);
@@ -30,10 +38,20 @@ function PlantingTools({ farmId, plantingId, view }: { farmId: string; plantingI
     void planting.mutate();
     setVersion((v) => v + 1);
   };
-  if (planting.error || crop.error) return <Notice tone="problem">{(planting.error ?? crop.error)!.message}</Notice>;
+  if (planting.error || crop.error)
+    return <Notice tone="problem">{(planting.error ?? crop.error)!.message}</Notice>;
   if (!planting.data || !crop.data) return <p className="text-ink/70">Loading the planting…</p>;
-  if (view === "curve") return <CurveEditor farmId={farmId} planting={planting.data.planting} crop={crop.data.crop} onSaved={refresh} />;
-  if (view === "calibration") return <CalibrationPanel key={version} farmId={farmId} plantingId={plantingId} onSaved={refresh} />;
+  if (view === "curve")
+    return (
+      <CurveEditor
+        farmId={farmId}
+        planting={planting.data.planting}
+        crop={crop.data.crop}
+        onSaved={refresh}
+      />
+    );
+  if (view === "calibration")
+    return <CalibrationPanel key={version} farmId={farmId} plantingId={plantingId} onSaved={refresh} />;
   return <HistoryPanel farmId={farmId} kind="plantings" id={plantingId} title="Changes to this planting" />;
 }
 
@@ -63,7 +81,11 @@ export function AgronomyPanel({ farmId, plantings }: { farmId: string; plantings
           ) : (
             <label className="flex flex-col gap-1 text-sm font-bold">
               Planting
-              <select className="tap rounded-xl border border-river-300 bg-white px-2 py-2 text-base font-normal" value={plantingId ?? ""} onChange={(e) => setPlantingId(e.target.value)}>
+              <select
+                className="tap rounded-xl border border-river-300 bg-white px-2 py-2 text-base font-normal"
+                value={plantingId ?? ""}
+                onChange={(e) => setPlantingId(e.target.value)}
+              >
                 {plantings.map((p) => (
                   <option key={p.id} value={p.id}>
                     {p.label} (sown {p.plantingDate})
@@ -72,7 +94,9 @@ export function AgronomyPanel({ farmId, plantings }: { farmId: string; plantings
               </select>
             </label>
           )}
-          {plantingId && <PlantingTools key={plantingId} farmId={farmId} plantingId={plantingId} view={view} />}
+          {plantingId && (
+            <PlantingTools key={plantingId} farmId={farmId} plantingId={plantingId} view={view} />
+          )}
         </>
       )}
       {view === "library" && <LibraryPanel farmId={farmId} />}

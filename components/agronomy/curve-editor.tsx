@@ -89,7 +89,17 @@ function useSettled<T>(value: T, ms: number): T {
  * A planting's crop curve: number inputs (the primary way), the draggable Kc curve, the live what-if of
  * the season's account beside the saved one, and saving with a required reason.
  */
-export function CurveEditor({ farmId, planting, crop, onSaved }: { farmId: string; planting: PlantingDto; crop: CropDto; onSaved: () => void }) {
+export function CurveEditor({
+  farmId,
+  planting,
+  crop,
+  onSaved,
+}: {
+  farmId: string;
+  planting: PlantingDto;
+  crop: CropDto;
+  onSaved: () => void;
+}) {
   const saved = useMemo(() => effective(planting, crop), [planting, crop]);
   const [form, setForm] = useState<Form>(saved);
   const [reason, setReason] = useState("");
@@ -102,17 +112,28 @@ export function CurveEditor({ farmId, planting, crop, onSaved }: { farmId: strin
   const edit = useMemo(() => editOf(form, saved), [form, saved]);
   const editKey = useSettled(JSON.stringify(edit), 350);
   const url = `/api/v1/farms/${farmId}/plantings/${planting.id}`;
-  const preview = useSWR<CurvePreviewDto, ApiError>([`${url}/preview`, editKey], ([u, body]: [string, string]) => sendJson<CurvePreviewDto>(u, "POST", JSON.parse(body)), {
-    keepPreviousData: true,
-    revalidateOnFocus: false,
-  });
+  const preview = useSWR<CurvePreviewDto, ApiError>(
+    [`${url}/preview`, editKey],
+    ([u, body]: [string, string]) => sendJson<CurvePreviewDto>(u, "POST", JSON.parse(body)),
+    {
+      keepPreviousData: true,
+      revalidateOnFocus: false,
+    },
+  );
   // After a save, follow the field's mark until the worker has rewritten the account.
-  const status = useSWR<{ data: { id: string; dirty: boolean }[] }>(recomputing ? `/api/v1/farms/${farmId}/status` : null, fetchJson, { refreshInterval: 1500 });
+  const status = useSWR<{ data: { id: string; dirty: boolean }[] }>(
+    recomputing ? `/api/v1/farms/${farmId}/status` : null,
+    fetchJson,
+    { refreshInterval: 1500 },
+  );
   const fieldDirty = status.data?.data.find((f) => f.id === planting.fieldId)?.dirty;
   useEffect(() => {
     if (recomputing && fieldDirty === false) {
       setRecomputing(false);
-      setMessage({ tone: "success", text: "Saved. The field's water account has been recomputed with the new curve." });
+      setMessage({
+        tone: "success",
+        text: "Saved. The field's water account has been recomputed with the new curve.",
+      });
       void preview.mutate();
     }
   }, [recomputing, fieldDirty, preview]);
@@ -128,11 +149,16 @@ export function CurveEditor({ farmId, planting, crop, onSaved }: { farmId: strin
       await sendJson(`${url}/curve`, "POST", { changes: edit, reason });
       setReason("");
       setRecomputing(true);
-      setMessage({ tone: "success", text: `Saved with your reason. The account is being recomputed from ${planting.plantingDate}…` });
+      setMessage({
+        tone: "success",
+        text: `Saved with your reason. The account is being recomputed from ${planting.plantingDate}…`,
+      });
       onSaved();
     } catch (err) {
       if (err instanceof ApiError) {
-        setErrors(Object.fromEntries(Object.entries(err.fields).map(([k, v]) => [k.replace(/^changes\./, ""), v])));
+        setErrors(
+          Object.fromEntries(Object.entries(err.fields).map(([k, v]) => [k.replace(/^changes\./, ""), v])),
+        );
         setMessage({ tone: "problem", text: err.message });
       } else setMessage({ tone: "problem", text: "Could not save; check the connection and try again." });
     } finally {
@@ -169,7 +195,8 @@ export function CurveEditor({ farmId, planting, crop, onSaved }: { farmId: strin
       )}
     </div>
   );
-  const cropHint = (k: NumberKey) => `${crop.name}: ${crop[k]}${planting[k] !== null ? " (this planting overrides it)" : ""}`;
+  const cropHint = (k: NumberKey) =>
+    `${crop.name}: ${crop[k]}${planting[k] !== null ? " (this planting overrides it)" : ""}`;
 
   return (
     <section aria-labelledby="curve-heading" className="flex flex-col gap-4">
@@ -184,25 +211,32 @@ export function CurveEditor({ farmId, planting, crop, onSaved }: { farmId: strin
             {input("kcMid", cropHint("kcMid"))}
             {input("kcEnd", cropHint("kcEnd"))}
           </fieldset>
-          <dl className="grid grid-cols-2 gap-2 rounded-xl bg-river-50 p-3 text-sm" aria-live="polite">
-            <div>
-              <dt className="font-bold">Kc mid used</dt>
-              <dd data-testid="kc-mid-used">
-                {used?.edited ? used.edited.mid.toFixed(2) : "…"} <span className="text-ink/70">(table {Number(form.kcMid).toFixed(2)}{Number(form.kcScale) !== 1 ? ` × ${form.kcScale}` : ""})</span>
-              </dd>
-            </div>
-            <div>
-              <dt className="font-bold">Kc end used</dt>
-              <dd>
-                {used?.edited ? used.edited.end.toFixed(2) : "…"} <span className="text-ink/70">(table {Number(form.kcEnd).toFixed(2)})</span>
-              </dd>
-            </div>
-            <p className="col-span-2 text-xs text-ink/70">
+          <div className="flex flex-col gap-1 rounded-xl bg-river-50 p-3 text-sm" aria-live="polite">
+            <dl className="grid grid-cols-2 gap-2">
+              <div>
+                <dt className="font-bold">Kc mid used</dt>
+                <dd data-testid="kc-mid-used">
+                  {used?.edited ? used.edited.mid.toFixed(2) : "…"}{" "}
+                  <span className="text-ink/70">
+                    (table {Number(form.kcMid).toFixed(2)}
+                    {Number(form.kcScale) !== 1 ? ` × ${form.kcScale}` : ""})
+                  </span>
+                </dd>
+              </div>
+              <div>
+                <dt className="font-bold">Kc end used</dt>
+                <dd>
+                  {used?.edited ? used.edited.end.toFixed(2) : "…"}{" "}
+                  <span className="text-ink/70">(table {Number(form.kcEnd).toFixed(2)})</span>
+                </dd>
+              </div>
+            </dl>
+            <p className="text-xs text-ink/70">
               {form.climateAdjust
                 ? `Adjusted for this farm's wind and humidity in those stages (FAO-56 eq. 62${used?.edited?.midWindMs != null ? `: u2 ${used.edited.midWindMs.toFixed(1)} m/s, RHmin ${used.edited.midRhMinPct?.toFixed(0)} %` : ""}).`
                 : "Climate adjustment is off: the table values are used as they are."}
             </p>
-          </dl>
+          </div>
           <fieldset className="grid grid-cols-2 gap-3">
             <legend className="mb-1 text-sm font-bold text-ink/80">Stage lengths</legend>
             {input("stageIniDays", cropHint("stageIniDays"))}
@@ -218,23 +252,40 @@ export function CurveEditor({ farmId, planting, crop, onSaved }: { farmId: strin
             {input("mad", "Empty: irrigate at RAW (p × TAW)")}
             {input("kcScale", "1 = the curve as given")}
             <label className="flex items-center gap-2 text-sm font-bold">
-              <input type="checkbox" className="h-5 w-5" checked={form.climateAdjust} onChange={(e) => set("climateAdjust", e.target.checked)} />
+              <input
+                type="checkbox"
+                className="h-5 w-5"
+                checked={form.climateAdjust}
+                onChange={(e) => set("climateAdjust", e.target.checked)}
+              />
               {label("climateAdjust")}
             </label>
           </fieldset>
         </div>
         <div className="flex min-w-0 flex-col gap-4">
-          <KcCurveChart saved={curveOf(saved)} edited={curveOf(form)} onChange={(next) => setForm((f) => ({ ...f, ...Object.fromEntries(Object.entries(next).map(([k, v]) => [k, String(v)])) }))} />
+          <KcCurveChart
+            saved={curveOf(saved)}
+            edited={curveOf(form)}
+            onChange={(next) =>
+              setForm((f) => ({
+                ...f,
+                ...Object.fromEntries(Object.entries(next).map(([k, v]) => [k, String(v)])),
+              }))
+            }
+          />
           {preview.error && <Notice tone="problem">{preview.error.message}</Notice>}
-          {preview.data && preview.data.saved.length === 0 && <Notice>This planting has no account days yet, so there is nothing to compare.</Notice>}
+          {preview.data && preview.data.saved.length === 0 && (
+            <Notice>This planting has no account days yet, so there is nothing to compare.</Notice>
+          )}
           {preview.data && preview.data.saved.length > 0 && (
             <>
               <PreviewChart saved={preview.data.saved} edited={preview.data.edited} />
               <p className="text-sm" data-testid="preview-summary">
                 {changed ? "What-if: " : "No edits yet: "}
                 depletion at the end {preview.data.saved.at(-1)!.depletionMm.toFixed(1)} mm saved,{" "}
-                <strong>{preview.data.edited.at(-1)!.depletionMm.toFixed(1)} mm with your edits</strong>; days at or past the trigger{" "}
-                {preview.data.daysAtOrPastTrigger.saved} saved, <strong>{preview.data.daysAtOrPastTrigger.edited} with your edits</strong>.
+                <strong>{preview.data.edited.at(-1)!.depletionMm.toFixed(1)} mm with your edits</strong>; days
+                at or past the trigger {preview.data.daysAtOrPastTrigger.saved} saved,{" "}
+                <strong>{preview.data.daysAtOrPastTrigger.edited} with your edits</strong>.
                 {preview.isValidating ? " Updating…" : ""}
               </p>
             </>
@@ -261,10 +312,19 @@ export function CurveEditor({ farmId, planting, crop, onSaved }: { farmId: strin
           </p>
         )}
         <div className="flex flex-wrap gap-2">
-          <Button type="button" disabled={!changed || busy || reason.trim().length < 3} onClick={() => void save()}>
+          <Button
+            type="button"
+            disabled={!changed || busy || reason.trim().length < 3}
+            onClick={() => void save()}
+          >
             {busy ? "Saving…" : "Save the curve"}
           </Button>
-          <Button type="button" variant="secondary" disabled={!changed || busy} onClick={() => setForm(saved)}>
+          <Button
+            type="button"
+            variant="secondary"
+            disabled={!changed || busy}
+            onClick={() => setForm(saved)}
+          >
             Undo edits
           </Button>
         </div>

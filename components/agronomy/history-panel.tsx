@@ -6,13 +6,37 @@ import { changedKeys, compareVersions, versionsOf } from "@/lib/agronomy/version
 import { useHistory } from "@/lib/client/use-agronomy";
 import { label, show, when } from "./format";
 
-const ORDER = ["kcIni", "kcMid", "kcEnd", "kcScale", "stageIniDays", "stageDevDays", "stageMidDays", "stageLateDays", "rootMinM", "rootMaxM", "p", "mad", "climateAdjust"];
+const ORDER = [
+  "kcIni",
+  "kcMid",
+  "kcEnd",
+  "kcScale",
+  "stageIniDays",
+  "stageDevDays",
+  "stageMidDays",
+  "stageLateDays",
+  "rootMinM",
+  "rootMaxM",
+  "p",
+  "mad",
+  "climateAdjust",
+];
 
 /**
  * Who changed a planting, farm crop or farm soil, when and why; pick two versions to see them side by
  * side with the changed values marked.
  */
-export function HistoryPanel({ farmId, kind, id, title }: { farmId: string; kind: "plantings" | "crops" | "soils"; id: string; title: string }) {
+export function HistoryPanel({
+  farmId,
+  kind,
+  id,
+  title,
+}: {
+  farmId: string;
+  kind: "plantings" | "crops" | "soils";
+  id: string;
+  title: string;
+}) {
   const { data, error } = useHistory(farmId, kind, id);
   const entries = useMemo(() => data?.data ?? [], [data]);
   const versions = useMemo(() => versionsOf(entries), [entries]);
@@ -39,7 +63,9 @@ export function HistoryPanel({ farmId, kind, id, title }: { farmId: string; kind
                 <p className="font-bold">
                   {when(e.at)} · {e.userName ?? "Rootbank"} · {e.action}
                 </p>
-                <p className="text-sm">{e.reason ? <>Why: {e.reason}</> : <span className="text-ink/70">No reason given</span>}</p>
+                <p className="text-sm">
+                  {e.reason ? <>Why: {e.reason}</> : <span className="text-ink/70">No reason given</span>}
+                </p>
                 {keys.length > 0 && (
                   <ul className="mt-1 text-sm">
                     {keys.map((k) => (
@@ -66,7 +92,11 @@ export function HistoryPanel({ farmId, kind, id, title }: { farmId: string; kind
             ).map(([side, value, setter]) => (
               <label key={side} className="flex flex-col gap-1 text-sm font-bold">
                 {side} version
-                <select className="tap rounded-xl border border-river-300 bg-white px-2 py-2 font-normal" value={value} onChange={(e) => setter(e.target.value)}>
+                <select
+                  className="tap rounded-xl border border-river-300 bg-white px-2 py-2 font-normal"
+                  value={value}
+                  onChange={(e) => setter(e.target.value)}
+                >
                   {versions.map((v) => (
                     <option key={v.key} value={v.key}>
                       {when(v.at)} — {v.label}
@@ -93,7 +123,11 @@ export function HistoryPanel({ farmId, kind, id, title }: { farmId: string; kind
               </thead>
               <tbody>
                 {rows.map((row) => (
-                  <tr key={row.key} className={row.changed ? "bg-clay-50 font-bold" : ""} data-changed={row.changed ? "yes" : undefined}>
+                  <tr
+                    key={row.key}
+                    className={row.changed ? "bg-clay-50 font-bold" : ""}
+                    data-changed={row.changed ? "yes" : undefined}
+                  >
                     <th scope="row" className="p-2 text-left font-normal">
                       {label(row.key)}
                       {row.changed && <span className="ml-1 text-xs text-clay-700">(changed)</span>}

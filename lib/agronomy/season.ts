@@ -1,5 +1,10 @@
 import "server-only";
-import { loadFarmObservations, loadFarmSetup, type AccountField, type AccountPlanting } from "@/db/account-inputs";
+import {
+  loadFarmObservations,
+  loadFarmSetup,
+  type AccountField,
+  type AccountPlanting,
+} from "@/db/account-inputs";
 import { getCrop, type Crop } from "@/db/crops";
 import { getPlanting, type Planting } from "@/db/plantings";
 import { buildFarmContext, buildFieldRun, byFieldId } from "@/lib/accounts/inputs";
@@ -7,7 +12,12 @@ import { StationEtoCache } from "@/lib/accounts/station-eto";
 import { AppError } from "@/lib/api/errors";
 import { farmToday } from "@/lib/farm-time";
 import type { CurveEdit } from "@/lib/validation/agronomy";
-import { addDaysIso, runFieldAccount, WaterBalanceInputError, type FieldAccountResult } from "@/lib/waterbalance";
+import {
+  addDaysIso,
+  runFieldAccount,
+  WaterBalanceInputError,
+  type FieldAccountResult,
+} from "@/lib/waterbalance";
 
 /**
  * A planting's season, loaded once and re-run in memory with other crop curves: the what-if preview
@@ -28,8 +38,21 @@ export interface PlantingSeason {
 
 /** The saved planting with an edit on top; a null in the edit means "the crop's own value". */
 export function applyCurveEdit(saved: AccountPlanting, crop: Crop, edit: CurveEdit): AccountPlanting {
-  const pick = <K extends "kcIni" | "kcMid" | "kcEnd" | "stageIniDays" | "stageDevDays" | "stageMidDays" | "stageLateDays" | "rootMinM" | "rootMaxM" | "p">(k: K): number =>
-    edit[k] === undefined ? saved[k] : (edit[k] ?? crop[k]);
+  const pick = <
+    K extends
+      | "kcIni"
+      | "kcMid"
+      | "kcEnd"
+      | "stageIniDays"
+      | "stageDevDays"
+      | "stageMidDays"
+      | "stageLateDays"
+      | "rootMinM"
+      | "rootMaxM"
+      | "p",
+  >(
+    k: K,
+  ): number => (edit[k] === undefined ? saved[k] : (edit[k] ?? crop[k]));
   return {
     ...saved,
     kcIni: pick("kcIni"),
@@ -49,16 +72,23 @@ export function applyCurveEdit(saved: AccountPlanting, crop: Crop, edit: CurveEd
 }
 
 /** Loads the planting's season; 404 when the planting is not this farm's. */
-export async function loadPlantingSeason(farmId: string, plantingId: string, today?: string): Promise<PlantingSeason> {
+export async function loadPlantingSeason(
+  farmId: string,
+  plantingId: string,
+  today?: string,
+): Promise<PlantingSeason> {
   const planting = await getPlanting(farmId, plantingId);
   if (!planting) throw new AppError("not_found", "No such planting on this farm.");
   const crop = await getCrop(farmId, planting.cropId);
   const setup = await loadFarmSetup(farmId, { fieldIds: [planting.fieldId] });
   const field = setup?.fields[0];
   const saved = setup?.plantings.find((p) => p.id === plantingId);
-  if (!setup || !field || !saved || !crop) throw new AppError("conflict", "This planting's field is archived, so it has no account to tune.");
+  if (!setup || !field || !saved || !crop)
+    throw new AppError("conflict", "This planting's field is archived, so it has no account to tune.");
   const yesterday = addDaysIso(today ?? farmToday(setup.farm.timeZone), -1);
-  const next = setup.plantings.filter((p) => p.fieldId === field.id && p.plantingDate > saved.plantingDate).sort((a, b) => (a.plantingDate < b.plantingDate ? -1 : 1))[0];
+  const next = setup.plantings
+    .filter((p) => p.fieldId === field.id && p.plantingDate > saved.plantingDate)
+    .sort((a, b) => (a.plantingDate < b.plantingDate ? -1 : 1))[0];
   let to = saved.endDate && saved.endDate < yesterday ? saved.endDate : yesterday;
   if (next && next.plantingDate <= to) to = addDaysIso(next.plantingDate, -1);
   const from = saved.plantingDate;
@@ -69,12 +99,20 @@ export async function loadPlantingSeason(farmId: string, plantingId: string, tod
   const etoCache = new StationEtoCache();
   const byField = { irrigations: byFieldId(obs.irrigations), soilChecks: byFieldId(obs.soilChecks) };
   const run = (p: AccountPlanting): FieldAccountResult | null => {
-    const fieldRun = buildFieldRun(ctx, etoCache, field, p, { from, to, initialDepletionMm: p.initialDepletionMm }, byField);
+    const fieldRun = buildFieldRun(
+      ctx,
+      etoCache,
+      field,
+      p,
+      { from, to, initialDepletionMm: p.initialDepletionMm },
+      byField,
+    );
     if (!fieldRun) return null;
     try {
       return runFieldAccount(fieldRun.input);
     } catch (err) {
-      if (err instanceof WaterBalanceInputError) throw new AppError("invalid", `The account cannot run with these values: ${err.message}`);
+      if (err instanceof WaterBalanceInputError)
+        throw new AppError("invalid", `The account cannot run with these values: ${err.message}`);
       throw err;
     }
   };

@@ -1,5 +1,14 @@
 import "server-only";
-import { errorStats, KC_SCALE_MAX, KC_SCALE_MIN, pairChecks, suggestKcScale, type CheckPair, type ErrorStats, type KcScaleSuggestion } from "@/lib/calibration";
+import {
+  errorStats,
+  KC_SCALE_MAX,
+  KC_SCALE_MIN,
+  pairChecks,
+  suggestKcScale,
+  type CheckPair,
+  type ErrorStats,
+  type KcScaleSuggestion,
+} from "@/lib/calibration";
 import { listFieldChecks } from "@/db/agronomy";
 import type { CurveEdit } from "@/lib/validation/agronomy";
 import type { FieldAccountResult, KcUsed } from "@/lib/waterbalance";
@@ -42,7 +51,12 @@ function line(result: FieldAccountResult | null): PreviewDay[] {
 }
 
 /** The season's account with the saved curve and with the edited one, side by side; stores nothing. */
-export async function previewCurve(farmId: string, plantingId: string, edit: CurveEdit, today?: string): Promise<CurvePreview> {
+export async function previewCurve(
+  farmId: string,
+  plantingId: string,
+  edit: CurveEdit,
+  today?: string,
+): Promise<CurvePreview> {
   const season = await loadPlantingSeason(farmId, plantingId, today);
   const saved = season.run(season.saved);
   const edited = season.run(applyCurveEdit(season.saved, season.crop, edit));
@@ -76,20 +90,34 @@ export interface CalibrationReport {
  * Every soil check of the planting's season beside the depletion the account carried into that day
  * (before the check's reset), the error statistics, and a suggested Kc scale (lib/calibration/kc-scale.ts).
  */
-export async function calibratePlanting(farmId: string, plantingId: string, today?: string): Promise<CalibrationReport> {
+export async function calibratePlanting(
+  farmId: string,
+  plantingId: string,
+  today?: string,
+): Promise<CalibrationReport> {
   const season = await loadPlantingSeason(farmId, plantingId, today);
   const base = { plantingId, kcScale: season.saved.kcScale, estimate: true as const };
-  const none = { ...base, checks: [], unmatched: 0, stats: errorStats([]), suggestion: suggestKcScale([], () => []) };
+  const none = {
+    ...base,
+    checks: [],
+    unmatched: 0,
+    stats: errorStats([]),
+    suggestion: suggestKcScale([], () => []),
+  };
   if (!season.span) return none;
   const checks = await listFieldChecks(season.field.id, season.span.from, season.span.to);
-  const carried = (result: FieldAccountResult | null) => new Map((result?.days ?? []).map((d) => [d.date, d.carriedDepletionMm]));
+  const carried = (result: FieldAccountResult | null) =>
+    new Map((result?.days ?? []).map((d) => [d.date, d.carriedDepletionMm]));
   const savedDays = carried(season.run(season.saved));
   if (savedDays.size === 0) return { ...none, unmatched: checks.length };
   const matched = checks.filter((c) => savedDays.has(c.date));
   const pairs = pairChecks(matched, savedDays);
   const observed = pairs.map((p) => p.observedMm);
   // Beyond the factor that lifts the highest Kc to 2 the engine caps the curve, so S(k) goes flat.
-  const hi = Math.min(KC_SCALE_MAX, 2 / Math.max(season.saved.kcIni, season.saved.kcMid, season.saved.kcEnd, 1e-6));
+  const hi = Math.min(
+    KC_SCALE_MAX,
+    2 / Math.max(season.saved.kcIni, season.saved.kcMid, season.saved.kcEnd, 1e-6),
+  );
   const suggestion = suggestKcScale(
     observed,
     (k) => {
@@ -102,7 +130,13 @@ export async function calibratePlanting(farmId: string, plantingId: string, toda
     ...base,
     checks: pairs.map((p, k) => {
       const c = matched[k]!;
-      return { ...p, id: c.id, method: c.method, resetsAccount: c.resetsAccount, errorMm: p.modelledMm - p.observedMm };
+      return {
+        ...p,
+        id: c.id,
+        method: c.method,
+        resetsAccount: c.resetsAccount,
+        errorMm: p.modelledMm - p.observedMm,
+      };
     }),
     unmatched: checks.length - pairs.length,
     stats: errorStats(pairs),

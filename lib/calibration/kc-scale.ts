@@ -46,10 +46,16 @@ export function suggestKcScale(
   options: { lo?: number; hi?: number } = {},
 ): KcScaleSuggestion {
   const method = "least-squares 1-D search (scan then golden section) re-running the account" as const;
-  if (observedMm.length < MIN_CHECKS_FOR_SUGGESTION) return { scale: null, withScale: null, evaluations: 0, method };
-  const found = minimiseOnInterval((k) => sumOfSquares(modelledAt(k), observedMm), options.lo ?? KC_SCALE_MIN, options.hi ?? KC_SCALE_MAX, {
-    tolerance: 1e-3,
-  });
+  if (observedMm.length < MIN_CHECKS_FOR_SUGGESTION)
+    return { scale: null, withScale: null, evaluations: 0, method };
+  const found = minimiseOnInterval(
+    (k) => sumOfSquares(modelledAt(k), observedMm),
+    options.lo ?? KC_SCALE_MIN,
+    options.hi ?? KC_SCALE_MAX,
+    {
+      tolerance: 1e-3,
+    },
+  );
   const scale = Math.round(found.x * 100) / 100;
   const modelled = modelledAt(scale);
   const withScale = errorStats(observedMm.map((o, k) => ({ observedMm: o, modelledMm: modelled[k] ?? NaN })));

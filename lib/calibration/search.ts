@@ -31,7 +31,12 @@ const INV_PHI = (Math.sqrt(5) - 1) / 2;
  * @param lo lower end of the interval
  * @param hi upper end of the interval (> lo)
  */
-export function minimiseOnInterval(f: (x: number) => number, lo: number, hi: number, options: MinimiseOptions = {}): MinimumFound {
+export function minimiseOnInterval(
+  f: (x: number) => number,
+  lo: number,
+  hi: number,
+  options: MinimiseOptions = {},
+): MinimumFound {
   if (!(hi > lo)) throw new RangeError("minimiseOnInterval: hi must be greater than lo");
   const scan = Math.max(3, options.scanPoints ?? 13);
   const tol = options.tolerance ?? 1e-4;
@@ -74,7 +79,10 @@ export function minimiseOnInterval(f: (x: number) => number, lo: number, hi: num
       fd = g(d);
     }
   }
-  for (const [x, v] of [[c, fc], [d, fd]] as const) {
+  for (const [x, v] of [
+    [c, fc],
+    [d, fd],
+  ] as const) {
     if (v < bestValue) {
       bestValue = v;
       bestX = x;

@@ -109,7 +109,15 @@ export interface StatsDto {
 
 export interface CalibrationDto {
   kcScale: number;
-  checks: { id: string; date: string; observedMm: number; modelledMm: number; errorMm: number; method: string; resetsAccount: boolean }[];
+  checks: {
+    id: string;
+    date: string;
+    observedMm: number;
+    modelledMm: number;
+    errorMm: number;
+    method: string;
+    resetsAccount: boolean;
+  }[];
   unmatched: number;
   stats: StatsDto;
   suggestion: { scale: number | null; withScale: StatsDto | null; evaluations: number; method: string };
@@ -120,7 +128,10 @@ export type HistoryEntryDto = HistoryChange & { actor: string; userEmail: string
 const base = (farmId: string) => `/api/v1/farms/${farmId}`;
 
 export function usePlanting(farmId: string, plantingId: string | null) {
-  return useSWR<{ planting: PlantingDto }>(plantingId ? `${base(farmId)}/plantings/${plantingId}` : null, fetchJson);
+  return useSWR<{ planting: PlantingDto }>(
+    plantingId ? `${base(farmId)}/plantings/${plantingId}` : null,
+    fetchJson,
+  );
 }
 
 export function useCrop(farmId: string, cropId: string | null) {
@@ -141,5 +152,9 @@ export function useHistory(farmId: string, kind: "plantings" | "crops" | "soils"
 }
 
 export function useCalibration(farmId: string, plantingId: string | null) {
-  return useSWR<CalibrationDto>(plantingId ? `${base(farmId)}/plantings/${plantingId}/calibration` : null, fetchJson, { revalidateOnFocus: false });
+  return useSWR<CalibrationDto>(
+    plantingId ? `${base(farmId)}/plantings/${plantingId}/calibration` : null,
+    fetchJson,
+    { revalidateOnFocus: false },
+  );
 }

@@ -22,7 +22,11 @@ export const CURVE_KEYS = Object.keys(curveShape) as (keyof typeof curveShape)[]
 
 function rootsInOrder(v: { rootMinM?: number | null; rootMaxM?: number | null }, ctx: z.RefinementCtx): void {
   if (typeof v.rootMinM === "number" && typeof v.rootMaxM === "number" && v.rootMinM > v.rootMaxM) {
-    ctx.addIssue({ code: "custom", path: ["rootMinM"], message: "Initial root depth cannot be deeper than the maximum root depth" });
+    ctx.addIssue({
+      code: "custom",
+      path: ["rootMinM"],
+      message: "Initial root depth cannot be deeper than the maximum root depth",
+    });
   }
 }
 

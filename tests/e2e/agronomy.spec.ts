@@ -11,7 +11,9 @@ interface PreviewBody {
   edited: { date: string; depletionMm: number }[];
 }
 
-test("an agronomist changes Kc mid, sees the what-if, saves with a reason, the account recomputes and the history shows why", async ({ page }, info) => {
+test("an agronomist changes Kc mid, sees the what-if, saves with a reason, the account recomputes and the history shows why", async ({
+  page,
+}, info) => {
   // The first request compiles pages and the worker's recompute runs beside the app on a busy machine.
   test.setTimeout(300_000);
   const farmId = await openKestrelBend(page, DEMO.agronomist);
@@ -26,12 +28,20 @@ test("an agronomist changes Kc mid, sees the what-if, saves with a reason, the a
   const kcMid = page.getByLabel("Kc mid", { exact: true });
   const current = Number(await kcMid.inputValue());
   const next = Math.round((current >= 1.3 ? current - 0.1 : current + 0.1) * 100) / 100;
-  const answered = page.waitForResponse((r) => r.url().endsWith(`/plantings/${plantingId}/preview`) && (r.request().postData() ?? "").includes('"kcMid"'));
+  const answered = page.waitForResponse(
+    (r) =>
+      r.url().endsWith(`/plantings/${plantingId}/preview`) &&
+      (r.request().postData() ?? "").includes('"kcMid"'),
+  );
   await kcMid.fill(String(next));
   const preview = (await (await answered).json()) as PreviewBody;
-  expect(preview.edited.some((d, k) => Math.abs(d.depletionMm - preview.saved[k]!.depletionMm) > 0.05)).toBe(true);
+  expect(preview.edited.some((d, k) => Math.abs(d.depletionMm - preview.saved[k]!.depletionMm) > 0.05)).toBe(
+    true,
+  );
   await expect(summary).toContainText("What-if:");
-  await expect(page.getByTestId("preview-chart").locator('path.recharts-line-curve[stroke="#1d7f99"]')).toBeVisible();
+  await expect(
+    page.getByTestId("preview-chart").locator('path.recharts-line-curve[stroke="#1d7f99"]'),
+  ).toBeVisible();
   const axe = await new AxeBuilder({ page }).analyze();
   expect(axe.violations.filter((v) => v.impact === "serious" || v.impact === "critical")).toEqual([]);
   await page.screenshot({ path: shot(info.project.name, "agronomy-what-if"), fullPage: true });
@@ -48,25 +58,41 @@ test("an agronomist changes Kc mid, sees the what-if, saves with a reason, the a
 
   const after = await (await page.request.get(`/api/v1/farms/${farmId}/plantings/${plantingId}`)).json();
   expect(after.planting.kcMid).toBe(next);
-  const account = await (await page.request.get(`/api/v1/farms/${farmId}/fields/${after.planting.fieldId}/account?from=${preview.to}&to=${preview.to}`)).json();
+  const account = await (
+    await page.request.get(
+      `/api/v1/farms/${farmId}/fields/${after.planting.fieldId}/account?from=${preview.to}&to=${preview.to}`,
+    )
+  ).json();
   expect(account.data[0].depletionEndMm).toBeCloseTo(preview.edited.at(-1)!.depletionMm, 0);
 
   await page.getByRole("button", { name: "History", exact: true }).click();
   const latest = page.getByTestId("history-list").getByRole("listitem").first();
   await expect(latest).toContainText(reason);
   await expect(latest).toContainText(`→ ${next}`);
-  await expect(page.getByTestId("version-compare").locator('tr[data-changed="yes"]').filter({ hasText: "Kc mid" })).toBeVisible();
+  await expect(
+    page.getByTestId("version-compare").locator('tr[data-changed="yes"]').filter({ hasText: "Kc mid" }),
+  ).toBeVisible();
   await page.screenshot({ path: shot(info.project.name, "agronomy-history"), fullPage: true });
 });
 
 test("a worker has no crop settings: no link, a 403 page and refused routes", async ({ page }) => {
   test.setTimeout(120_000);
   const farmId = await openKestrelBend(page, DEMO.worker);
-  await expect(page.getByRole("navigation", { name: "Farm" }).getByRole("link", { name: "Crops" })).toHaveCount(0);
+  await expect(
+    page.getByRole("navigation", { name: "Farm" }).getByRole("link", { name: "Crops" }),
+  ).toHaveCount(0);
   const res = await page.goto(`/farms/${farmId}/agronomy`);
   expect(res?.status()).toBe(403);
   const plantings = await (await page.request.get(`/api/v1/farms/${farmId}/plantings?limit=1`)).json();
   const id = plantings.data[0].id as string;
-  expect((await page.request.post(`/api/v1/farms/${farmId}/plantings/${id}/preview`, { data: {} })).status()).toBe(403);
-  expect((await page.request.post(`/api/v1/farms/${farmId}/plantings/${id}/curve`, { data: { changes: { kcMid: 1.1 }, reason: "not mine" } })).status()).toBe(403);
+  expect(
+    (await page.request.post(`/api/v1/farms/${farmId}/plantings/${id}/preview`, { data: {} })).status(),
+  ).toBe(403);
+  expect(
+    (
+      await page.request.post(`/api/v1/farms/${farmId}/plantings/${id}/curve`, {
+        data: { changes: { kcMid: 1.1 }, reason: "not mine" },
+      })
+    ).status(),
+  ).toBe(403);
 });

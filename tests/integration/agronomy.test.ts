@@ -31,7 +31,10 @@ interface PreviewBody {
 }
 
 async function storedDays(fieldId: string): Promise<Map<string, number>> {
-  const rows = (await db("account_days").where({ field_id: fieldId }).select("date", "depletion_end_mm")) as { date: string; depletion_end_mm: number }[];
+  const rows = (await db("account_days").where({ field_id: fieldId }).select("date", "depletion_end_mm")) as {
+    date: string;
+    depletion_end_mm: number;
+  }[];
   return new Map(rows.map((r) => [r.date, r.depletion_end_mm]));
 }
 
@@ -53,7 +56,12 @@ describe("what-if preview", () => {
       audits: Number(((await db("audit_log").count({ n: "*" })) as [{ n: string }])[0].n),
       field: await db("fields").where({ id: farm.ids.a }).first("account_dirty_from"),
     };
-    const res = await call<PreviewBody>(preview.POST, `${base()}/preview`, { method: "POST", as: farm.team.agronomist, params: params(), body: { kcMid: 1.4 } });
+    const res = await call<PreviewBody>(preview.POST, `${base()}/preview`, {
+      method: "POST",
+      as: farm.team.agronomist,
+      params: params(),
+      body: { kcMid: 1.4 },
+    });
     expect(res.status).toBe(200);
     expect(res.body.estimate).toBe(true);
     // The saved line is the stored account (to its 0.1 mm rounding).
@@ -71,7 +79,12 @@ describe("what-if preview", () => {
   });
 
   it("names a bad value, never a 500", async () => {
-    const res = await call(preview.POST, `${base()}/preview`, { method: "POST", as: farm.team.agronomist, params: params(), body: { kcMid: 3 } });
+    const res = await call(preview.POST, `${base()}/preview`, {
+      method: "POST",
+      as: farm.team.agronomist,
+      params: params(),
+      body: { kcMid: 3 },
+    });
     expect(res.status).toBe(422);
     expect(res.body.error?.fields).toHaveProperty("kcMid");
   });
@@ -79,14 +92,24 @@ describe("what-if preview", () => {
 
 describe("saving the curve", () => {
   it("needs a reason", async () => {
-    const res = await call(curve.POST, `${base()}/curve`, { method: "POST", as: farm.team.agronomist, params: params(), body: { changes: { kcMid: 1.4 } } });
+    const res = await call(curve.POST, `${base()}/curve`, {
+      method: "POST",
+      as: farm.team.agronomist,
+      params: params(),
+      body: { changes: { kcMid: 1.4 } },
+    });
     expect(res.status).toBe(422);
     expect(res.body.error?.fields).toHaveProperty("reason");
     expect((await db("plantings").where({ id: farm.ids.pa }).first("kc_mid")).kc_mid).toBeNull();
   });
 
   it("writes the planting and the audit with before/after and reason, marks the field, and the recompute changes the account", async () => {
-    const edited = await call<PreviewBody>(preview.POST, `${base()}/preview`, { method: "POST", as: farm.team.agronomist, params: params(), body: { kcMid: 1.4 } });
+    const edited = await call<PreviewBody>(preview.POST, `${base()}/preview`, {
+      method: "POST",
+      as: farm.team.agronomist,
+      params: params(),
+      body: { kcMid: 1.4 },
+    });
     const stored = await storedDays(farm.ids.a);
     const reason = "Probe readings dried faster than the account in December";
     const res = await call<{ planting: { kcMid: number } }>(curve.POST, `${base()}/curve`, {
@@ -97,7 +120,10 @@ describe("saving the curve", () => {
     });
     expect(res.status).toBe(200);
     expect(res.body.planting.kcMid).toBe(1.4);
-    const entry = (await db("audit_log").where({ entity: "planting", entity_id: farm.ids.pa }).orderBy("id", "desc").first()) as {
+    const entry = (await db("audit_log")
+      .where({ entity: "planting", entity_id: farm.ids.pa })
+      .orderBy("id", "desc")
+      .first()) as {
       user_id: string;
       reason: string;
       before: { kcMid: number | null };
@@ -107,7 +133,9 @@ describe("saving the curve", () => {
     expect(entry.reason).toBe(reason);
     expect(entry.before.kcMid).toBeNull();
     expect(entry.after.kcMid).toBe(1.4);
-    const field = (await db("fields").where({ id: farm.ids.a }).first("account_dirty_from")) as { account_dirty_from: string };
+    const field = (await db("fields").where({ id: farm.ids.a }).first("account_dirty_from")) as {
+      account_dirty_from: string;
+    };
     expect(field.account_dirty_from).toBe(farm.start);
 
     await recomputeFarm(farm.farmId, { today: farm.today });
@@ -116,12 +144,19 @@ describe("saving the curve", () => {
     // The recomputed account is the line the preview drew.
     for (const d of edited.body.edited) expect(after.get(d.date)!).toBeCloseTo(d.depletionMm, 1);
 
-    const hist = await call<{ data: { reason: string; userName: string; before: { kcMid: unknown }; after: { kcMid: unknown } }[] }>(history.GET, `${base()}/history`, {
+    const hist = await call<{
+      data: { reason: string; userName: string; before: { kcMid: unknown }; after: { kcMid: unknown } }[];
+    }>(history.GET, `${base()}/history`, {
       as: farm.team.owner,
       params: params(),
     });
     expect(hist.status).toBe(200);
-    expect(hist.body.data[0]).toMatchObject({ reason, userName: farm.team.agronomist.name, before: { kcMid: null }, after: { kcMid: 1.4 } });
+    expect(hist.body.data[0]).toMatchObject({
+      reason,
+      userName: farm.team.agronomist.name,
+      before: { kcMid: null },
+      after: { kcMid: 1.4 },
+    });
   });
 });
 
@@ -133,7 +168,14 @@ describe("calibration from soil checks", () => {
     const truth = season.run({ ...season.saved, kcScale: 1.2 })!;
     const carried = new Map(truth.days.map((d) => [d.date, d.carriedDepletionMm]));
     const dates = [8, 16, 24, 33, 45, 52].map((i) => addDaysIso(farm.start, i));
-    await db("soil_checks").insert(dates.map((date) => ({ field_id: farm.ids.b, date, depletion_mm: carried.get(date)!, method: "probe" })));
+    await db("soil_checks").insert(
+      dates.map((date) => ({
+        field_id: farm.ids.b,
+        date,
+        depletion_mm: carried.get(date)!,
+        method: "probe",
+      })),
+    );
 
     const p = { farmId: farm.farmId, plantingId: farm.ids.pb };
     const url = `/api/v1/farms/${farm.farmId}/plantings/${farm.ids.pb}/calibration`;
@@ -151,20 +193,36 @@ describe("calibration from soil checks", () => {
     expect(res.body.suggestion.scale).toBeLessThanOrEqual(1.22);
     expect(res.body.suggestion.withScale.rmseMm).toBeLessThan(res.body.stats.rmseMm);
 
-    const refused = await call(calibration.POST, url, { method: "POST", as: farm.team.agronomist, params: p, body: { kcScale: 1.2 } });
+    const refused = await call(calibration.POST, url, {
+      method: "POST",
+      as: farm.team.agronomist,
+      params: p,
+      body: { kcScale: 1.2 },
+    });
     expect(refused.status).toBe(422);
     const reason = "Six probe checks say the crop uses about a fifth more than the table";
-    const ok = await call<{ planting: { kcScale: number } }>(calibration.POST, url, { method: "POST", as: farm.team.agronomist, params: p, body: { kcScale: 1.2, reason } });
+    const ok = await call<{ planting: { kcScale: number } }>(calibration.POST, url, {
+      method: "POST",
+      as: farm.team.agronomist,
+      params: p,
+      body: { kcScale: 1.2, reason },
+    });
     expect(ok.status).toBe(200);
     expect(ok.body.planting.kcScale).toBe(1.2);
-    const entry = (await db("audit_log").where({ entity: "planting", entity_id: farm.ids.pb }).orderBy("id", "desc").first()) as {
+    const entry = (await db("audit_log")
+      .where({ entity: "planting", entity_id: farm.ids.pb })
+      .orderBy("id", "desc")
+      .first()) as {
       reason: string;
       after: { kcScale: number };
     };
     expect(entry).toMatchObject({ reason, after: { kcScale: 1.2 } });
     // The recompute runs the engine with the stored scale: the checks now sit on the account.
     await recomputeFarm(farm.farmId, { today: farm.today });
-    const again = await call<{ stats: { rmseMm: number } }>(calibration.GET, url, { as: farm.team.agronomist, params: p });
+    const again = await call<{ stats: { rmseMm: number } }>(calibration.GET, url, {
+      as: farm.team.agronomist,
+      params: p,
+    });
     expect(again.body.stats.rmseMm).toBeLessThan(0.5);
   });
 });
@@ -172,10 +230,24 @@ describe("calibration from soil checks", () => {
 describe("who may tune", () => {
   it("refuses a worker on every agronomy route", async () => {
     const w = farm.team.worker;
-    expect((await call(preview.POST, `${base()}/preview`, { method: "POST", as: w, params: params(), body: {} })).status).toBe(403);
-    expect((await call(curve.POST, `${base()}/curve`, { method: "POST", as: w, params: params(), body: { changes: { kcMid: 1 }, reason: "try" } })).status).toBe(403);
+    expect(
+      (await call(preview.POST, `${base()}/preview`, { method: "POST", as: w, params: params(), body: {} }))
+        .status,
+    ).toBe(403);
+    expect(
+      (
+        await call(curve.POST, `${base()}/curve`, {
+          method: "POST",
+          as: w,
+          params: params(),
+          body: { changes: { kcMid: 1 }, reason: "try" },
+        })
+      ).status,
+    ).toBe(403);
     expect((await call(history.GET, `${base()}/history`, { as: w, params: params() })).status).toBe(403);
-    expect((await call(calibration.GET, `${base()}/calibration`, { as: w, params: params() })).status).toBe(403);
+    expect((await call(calibration.GET, `${base()}/calibration`, { as: w, params: params() })).status).toBe(
+      403,
+    );
     expect((await db("plantings").where({ id: farm.ids.pa }).first("kc_mid")).kc_mid).toBe(1.4);
   });
 
@@ -188,11 +260,17 @@ describe("who may tune", () => {
       body: { kcEnd: 0.4, reason: "Harvested green, not dried in the field" },
     });
     expect(crop.status).toBe(200);
-    const hist = await call<{ data: { reason: string; before: { kcEnd: number }; after: { kcEnd: number } }[] }>(cropHistory.GET, `/api/v1/farms/${farm.farmId}/crops/${farm.ids.crop}/history`, {
+    const hist = await call<{
+      data: { reason: string; before: { kcEnd: number }; after: { kcEnd: number } }[];
+    }>(cropHistory.GET, `/api/v1/farms/${farm.farmId}/crops/${farm.ids.crop}/history`, {
       as: a,
       params: { farmId: farm.farmId, cropId: farm.ids.crop },
     });
-    expect(hist.body.data[0]).toMatchObject({ reason: "Harvested green, not dried in the field", before: { kcEnd: 0.35 }, after: { kcEnd: 0.4 } });
+    expect(hist.body.data[0]).toMatchObject({
+      reason: "Harvested green, not dried in the field",
+      before: { kcEnd: 0.35 },
+      after: { kcEnd: 0.4 },
+    });
     const system = await call(systemItem.PATCH, `/api/v1/farms/${farm.farmId}/systems/${farm.ids.s1}`, {
       method: "PATCH",
       as: a,

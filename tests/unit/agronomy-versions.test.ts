@@ -2,7 +2,13 @@ import { describe, expect, it } from "vitest";
 import { cropValueSources, soilValueSources } from "@/lib/agronomy/sources";
 import { changedKeys, compareVersions, versionsOf, type HistoryChange } from "@/lib/agronomy/versions";
 
-const change = (id: string, at: string, before: Record<string, unknown> | null, after: Record<string, unknown> | null, action = "update"): HistoryChange => ({
+const change = (
+  id: string,
+  at: string,
+  before: Record<string, unknown> | null,
+  after: Record<string, unknown> | null,
+  action = "update",
+): HistoryChange => ({
   id,
   at,
   action,
@@ -15,8 +21,18 @@ const change = (id: string, at: string, before: Record<string, unknown> | null, 
 describe("versions from the audit history", () => {
   // Invented history: Kc mid 1.2 → 1.3 → 1.35 (hand-made values, common practice, no source)
   const history = [
-    change("3", "2026-12-02T01:00:00Z", { kcMid: 1.3, p: 0.5, updatedAt: "b" }, { kcMid: 1.35, p: 0.5, updatedAt: "c" }),
-    change("2", "2026-12-01T01:00:00Z", { kcMid: 1.2, p: 0.5, updatedAt: "a" }, { kcMid: 1.3, p: 0.5, updatedAt: "b" }),
+    change(
+      "3",
+      "2026-12-02T01:00:00Z",
+      { kcMid: 1.3, p: 0.5, updatedAt: "b" },
+      { kcMid: 1.35, p: 0.5, updatedAt: "c" },
+    ),
+    change(
+      "2",
+      "2026-12-01T01:00:00Z",
+      { kcMid: 1.2, p: 0.5, updatedAt: "a" },
+      { kcMid: 1.3, p: 0.5, updatedAt: "b" },
+    ),
   ];
 
   it("lists the state before the oldest change, then each change's result, oldest first", () => {
@@ -31,7 +47,11 @@ describe("versions from the audit history", () => {
   });
 
   it("marks exactly the changed settings, ignoring bookkeeping", () => {
-    const rows = compareVersions({ kcMid: 1.2, p: 0.5, updatedAt: "a" }, { kcMid: 1.35, p: 0.5, updatedAt: "c" }, ["p", "kcMid"]);
+    const rows = compareVersions(
+      { kcMid: 1.2, p: 0.5, updatedAt: "a" },
+      { kcMid: 1.35, p: 0.5, updatedAt: "c" },
+      ["p", "kcMid"],
+    );
     expect(rows).toEqual([
       { key: "p", left: 0.5, right: 0.5, changed: false },
       { key: "kcMid", left: 1.2, right: 1.35, changed: true },

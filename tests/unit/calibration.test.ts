@@ -56,7 +56,11 @@ describe("suggestKcScale on checks generated from the engine", () => {
   const days = 60;
   function season(scale: number, checks: { date: string; depletionMm: number }[] = []): FieldAccountInput {
     const base = plainField({}, days, 5);
-    const irrigations = [14, 29, 44].map((d) => ({ date: addDaysIso(base.startDate, d), depthMm: 50, basis: "net" as const }));
+    const irrigations = [14, 29, 44].map((d) => ({
+      date: addDaysIso(base.startDate, d),
+      depthMm: 50,
+      basis: "net" as const,
+    }));
     return {
       ...base,
       planting: { ...base.planting, kc: { ini: 0.9 * scale, mid: 0.9 * scale, end: 0.9 * scale } },
@@ -81,7 +85,10 @@ describe("suggestKcScale on checks generated from the engine", () => {
     expect(s.scale).toBeCloseTo(1.2, 2);
     expect(s.withScale?.rmseMm).toBeLessThan(0.5);
     // the unscaled curve under-predicts depletion: negative bias
-    const pairs = pairChecks(checks, new Map(runFieldAccount(season(1, checks)).days.map((d) => [d.date, d.carriedDepletionMm])));
+    const pairs = pairChecks(
+      checks,
+      new Map(runFieldAccount(season(1, checks)).days.map((d) => [d.date, d.carriedDepletionMm])),
+    );
     expect(errorStats(pairs).meanErrorMm).toBeLessThan(0);
   });
 

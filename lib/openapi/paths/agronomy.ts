@@ -39,14 +39,20 @@ const history = z.object({
     }),
   ),
 });
-const stats = z.object({ n: z.number(), meanErrorMm: z.number().nullable(), rmseMm: z.number().nullable(), maeMm: z.number().nullable() });
+const stats = z.object({
+  n: z.number(),
+  meanErrorMm: z.number().nullable(),
+  rmseMm: z.number().nullable(),
+  maeMm: z.number().nullable(),
+});
 const saved = z.object({ planting, recompute: z.literal("queued") });
 
 export const operations: Operation[] = [
   {
     method: "post",
     path: "/api/v1/farms/{farmId}/plantings/{plantingId}/preview",
-    summary: "What-if: the season's account re-run with an edited crop curve, beside the saved one (stores nothing; an estimate)",
+    summary:
+      "What-if: the season's account re-run with an edited crop curve, beside the saved one (stores nothing; an estimate)",
     tag: "Agronomy",
     access: "editAgronomy",
     body: curveEditSchema,
@@ -64,7 +70,8 @@ export const operations: Operation[] = [
   {
     method: "post",
     path: "/api/v1/farms/{farmId}/plantings/{plantingId}/curve",
-    summary: "Save a tuned crop curve with the reason; audited with the values before and after, the account recomputed from the planting date",
+    summary:
+      "Save a tuned crop curve with the reason; audited with the values before and after, the account recomputed from the planting date",
     tag: "Agronomy",
     access: "editAgronomy",
     body: curveSaveSchema,
@@ -81,7 +88,8 @@ export const operations: Operation[] = [
   {
     method: "get",
     path: "/api/v1/farms/{farmId}/plantings/{plantingId}/calibration",
-    summary: "Soil checks beside the modelled depletion, error statistics and a least-squares Kc scale (an estimate)",
+    summary:
+      "Soil checks beside the modelled depletion, error statistics and a least-squares Kc scale (an estimate)",
     tag: "Agronomy",
     access: "editAgronomy",
     response: z.object({
@@ -100,7 +108,12 @@ export const operations: Operation[] = [
       ),
       unmatched: z.number(),
       stats,
-      suggestion: z.object({ scale: z.number().nullable(), withScale: stats.nullable(), evaluations: z.number(), method: z.string() }),
+      suggestion: z.object({
+        scale: z.number().nullable(),
+        withScale: stats.nullable(),
+        evaluations: z.number(),
+        method: z.string(),
+      }),
       estimate: z.literal(true),
     }),
   },

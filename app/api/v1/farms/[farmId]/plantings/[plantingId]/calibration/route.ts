@@ -8,7 +8,9 @@ import { calibrationAcceptSchema } from "@/lib/validation/agronomy";
 type Params = { farmId: string; plantingId: string };
 
 // GET /api/v1/farms/:farmId/plantings/:plantingId/calibration — soil checks beside the modelled depletion, error statistics and a suggested Kc scale
-export const GET = withFarmRole<Params>("editAgronomy", async ({ farmId, params }) => calibratePlanting(farmId, pathId(params.plantingId, "planting")));
+export const GET = withFarmRole<Params>("editAgronomy", async ({ farmId, params }) =>
+  calibratePlanting(farmId, pathId(params.plantingId, "planting")),
+);
 
 // POST /api/v1/farms/:farmId/plantings/:plantingId/calibration — accept a Kc scale with the reason; the account is recomputed from the planting date
 export const POST = withFarmRole<Params>("editAgronomy", async ({ req, farmId, params, user }) => {

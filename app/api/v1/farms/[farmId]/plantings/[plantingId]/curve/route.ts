@@ -10,7 +10,8 @@ type Params = { farmId: string; plantingId: string };
 export const POST = withFarmRole<Params>("editAgronomy", async ({ req, farmId, params, user }) => {
   const id = pathId(params.plantingId, "planting");
   const { changes, reason } = await readJson(req, curveSaveSchema);
-  if (Object.keys(changes).length === 0) throw new AppError("invalid", "Nothing to save: change a value first.", { changes: "No value changed" });
+  if (Object.keys(changes).length === 0)
+    throw new AppError("invalid", "Nothing to save: change a value first.", { changes: "No value changed" });
   const planting = await updatePlanting(farmId, user.id, id, changes, reason);
   if (!planting) throw new AppError("not_found", "No such planting on this farm.");
   return { planting, recompute: "queued" as const };
