@@ -216,4 +216,31 @@ describe("what changes an account", () => {
     await db("plantings").where({ field_id: fieldId }).delete();
     await db("fields").where({ id: fieldId }).delete();
   });
+
+  it("marks every field of the farm stale when a gauge or station moves, since rain and weather are shared by distance", async () => {
+    const [{ id: soilId }] = await db("soils").insert({ farm_id: team.farmId, name: "Moves loam", texture: "loam", theta_fc: 0.25, theta_wp: 0.12, theta_sat: 0.46 }).returning("id");
+    const [{ id: cropId }] = await db("crops").insert({ farm_id: team.farmId, name: "Moves lucerne", kc_ini: 0.4, kc_mid: 0.95, kc_end: 0.9, stage_ini_days: 10, stage_dev_days: 30, stage_mid_days: 25, stage_late_days: 10, root_min_m: 0.3, root_max_m: 1.2, p: 0.55 }).returning("id");
+    const fieldIds = (await db("fields").insert([
+      { farm_id: team.farmId, name: "Moves east", area_ha: 3, soil_id: soilId },
+      { farm_id: team.farmId, name: "Moves west", area_ha: 5, soil_id: soilId },
+    ]).returning("id")).map((r: { id: string }) => r.id);
+    await db("plantings").insert(fieldIds.map((field_id, k) => ({ field_id, season: "2026-27", crop_id: cropId, planting_date: k === 0 ? "2026-10-01" : "2026-10-15" })));
+    const dirty = async () => (await db("fields").whereIn("id", fieldIds).orderBy("name").pluck("account_dirty_from")) as (string | null)[];
+    const post = async (list: typeof gaugeList, segment: string, body: Record<string, unknown>) =>
+      (await call<Body>(list.POST, `/api/v1/farms/${team.farmId}/${segment}`, { method: "POST", as: team.manager, params: { farmId: team.farmId }, body })).body;
+    const gauge = (await post(gaugeList, "gauges", { name: "Moves gauge", kind: "manual", latitude: -34.4, longitude: 146 })).gauge as Item;
+    const station = (await post(stationList, "stations", { name: "Moves station", latitude: -34.4, longitude: 146 })).station as Item;
+
+    await call(gaugeItem.PATCH, "/x", { method: "PATCH", as: team.manager, params: { farmId: team.farmId, gaugeId: gauge.id }, body: { name: "Moves gauge renamed" } });
+    expect(await dirty()).toEqual([null, null]); // a name is not an input of the account
+    await call(gaugeItem.PATCH, "/x", { method: "PATCH", as: team.manager, params: { farmId: team.farmId, gaugeId: gauge.id }, body: { latitude: -34.41 } });
+    expect(await dirty()).toEqual(["2026-10-01", "2026-10-15"]);
+
+    await db("fields").whereIn("id", fieldIds).update({ account_dirty_from: null });
+    await call(stationItem.PATCH, "/x", { method: "PATCH", as: team.manager, params: { farmId: team.farmId, stationId: station.id }, body: { elevationM: 140 } });
+    expect(await dirty()).toEqual(["2026-10-01", "2026-10-15"]);
+
+    await db("plantings").whereIn("field_id", fieldIds).delete();
+    await db("fields").whereIn("id", fieldIds).delete();
+  });
 });
