@@ -1,6 +1,7 @@
 import Link from "next/link";
 import { AlertBell } from "@/components/alerts/alert-bell";
 import { SignOutButton } from "@/components/auth/sign-out-button";
+import { FarmNav } from "@/components/farm/farm-nav";
 import { Logo } from "@/components/ui/logo";
 import { can, ROLE_LABELS, type Role } from "@/lib/auth/roles";
 
@@ -28,13 +29,7 @@ export function FarmHeader({ farmId, farmName, role, userName }: { farmId: strin
         </div>
         <AlertBell farmId={farmId} />
         <SignOutButton />
-        <nav aria-label="Farm" className="flex w-full gap-1 overflow-x-auto">
-          {links.map((l) => (
-            <Link key={l.href} href={l.href} className="tap flex items-center rounded-lg px-3 font-bold text-river-700 hover:bg-river-50">
-              {l.label}
-            </Link>
-          ))}
-        </nav>
+        <FarmNav links={links.map(({ href, label }) => ({ href, label }))} homeHref={`/farms/${farmId}`} />
       </div>
     </header>
   );
