@@ -1,7 +1,5 @@
 import "server-only";
 import { createHash } from "node:crypto";
-import { Readable } from "node:stream";
-import { pipeline } from "node:stream/promises";
 import type { Knex } from "knex";
 import type { PoolClient } from "pg";
 import { from as copyFrom } from "pg-copy-streams";
@@ -119,6 +117,15 @@ export class AccountDayRows {
     return this.count;
   }
 
+  /** Empties the batch for reuse (its buffer stays). */
+  clear(): void {
+    this.provenanceTexts.length = 0;
+    this.provenanceIds.length = 0;
+    this.provenanceWords.length = 0;
+    this.runs.length = 0;
+    this.count = 0;
+  }
+
   /** Drops the rows from `length` on (taken from {@link length} between runs). */
   truncate(length: number): void {
     while (this.runs.length > 0 && this.runs[this.runs.length - 1]!.firstRow >= length) this.runs.pop();
@@ -230,17 +237,24 @@ export class AccountDayRows {
   }
 }
 
+/**
+ * COPY FROM STDIN with `data`, written whole at once: the socket then drains it without waiting for the
+ * event loop, which is busy computing the next batch.
+ */
 async function copyIn(client: PoolClient, sql: string, data: Buffer): Promise<void> {
-  async function* chunks(): AsyncGenerator<Buffer> {
-    for (let k = 0; k < data.length; k += COPY_CHUNK) yield data.subarray(k, k + COPY_CHUNK);
-  }
-  await pipeline(Readable.from(chunks()), client.query(copyFrom(sql)));
+  const stream = client.query(copyFrom(sql));
+  await new Promise<void>((resolve, reject) => {
+    stream.on("error", reject);
+    stream.on("finish", resolve);
+    for (let k = 0; k < data.length; k += COPY_CHUNK) stream.write(data.subarray(k, k + COPY_CHUNK));
+    stream.end();
+  });
 }
 
 /** Each listed field's latest day and the mean crop ET of its last seven stored days (none for a field without days). */
-const LATEST_SELECT = `
+const latestSelect = (fieldIds: string): string => `
   select v.id as field_id, w.date, w.planting_id, w.depletion_end_mm, w.taw_mm, w.raw_mm, w.recent_etc_mm
-    from unnest($1::uuid[]) as v(id)
+    from unnest(${fieldIds}) as v(id)
     join lateral (
       select max(d.date) as date, (array_agg(d.planting_id order by d.date desc))[1] as planting_id,
              (array_agg(d.depletion_end_mm order by d.date desc))[1] as depletion_end_mm,
@@ -251,15 +265,30 @@ const LATEST_SELECT = `
       having count(*) > 0
     ) w on true`;
 
+/** Array literal of values Rootbank generated (uuids, dates, integers), none of which needs quoting. */
+function arrayLiteral(values: readonly (string | number)[], type: string): string {
+  return `'{${values.join(",")}}'::${type}[]`;
+}
+
+/** A dollar-quoted literal whose tag does not occur in the text. */
+function dollarQuoted(text: string): string {
+  let tag = "$rb$";
+  for (let k = 0; text.includes(tag); k++) tag = `$rb${k}$`;
+  return `${tag}${text}${tag}`;
+}
+
+type Result = { rows: Record<string, unknown>[] };
+
 /**
- * Rewrites fields' account days in one transaction on one connection: deletes each field's days from its
- * date on, stores the batch's provenance documents once per field, copies `rows` in (binary COPY), drops
- * documents no day uses any more, refreshes the fields' latest-day rows, and clears the marks whose
- * counter is unchanged (compare-and-set). Returns the ids cleared.
- *
- * account_days has no foreign keys (two key checks per row cost more than the rest of the write): the
- * transaction takes the key-share locks a key check would, so a field or planting deleted meanwhile waits
- * for it, and one already gone has its rows dropped or unlinked here, as the triggers do on delete.
+ * Rewrites fields' account days in one transaction on one connection, in three exchanges so that the
+ * server waits little on a client busy computing the next batch:
+ * 1. lock the fields and plantings written for (key share, as a foreign key check would), delete each
+ *    field's days from its date on, and list the documents the deleted days used;
+ * 2. copy `rows` in (binary COPY);
+ * 3. store the documents a field did not have, drop those no day uses any more, drop or unlink the rows
+ *    of a field or planting deleted before the lock, refresh the fields' latest-day rows, clear the marks
+ *    whose counter is unchanged (compare-and-set), and commit.
+ * Returns the ids whose mark was cleared.
  */
 export async function rewriteAccountDays(
   deleteFrom: readonly { fieldId: string; fromDate: string }[],
@@ -274,62 +303,78 @@ export async function rewriteAccountDays(
   const plantingIds = ids.plantingIds;
 
   const client = (await conn.client.acquireConnection()) as PoolClient;
-  const q = async <R extends Record<string, unknown>>(sql: string, values?: unknown[]) => (await client.query<R>(sql, values)).rows;
+  const exchange = async (statements: string[]): Promise<Result[]> => {
+    const res = (await client.query(statements.join(";\n"))) as unknown as Result | Result[];
+    return Array.isArray(res) ? res : [res];
+  };
   try {
-    await q("begin");
-    const live = new Set((await q<{ id: string }>("select id from fields where id = any($1::uuid[]) order by id for key share", [fieldIds])).map((r) => r.id));
-    const livePlantings = plantingIds.length
-      ? new Set((await q<{ id: string }>("select id from plantings where id = any($1::uuid[]) order by id for key share", [plantingIds])).map((r) => r.id))
-      : new Set<string>();
-    const dropped = deleteFrom.length
-      ? await q<{ field_id: string; provenance_id: string }>(
-          "with d as (delete from account_days a using unnest($1::uuid[], $2::date[]) as v(field_id, from_date) " +
-            "where a.field_id = v.field_id and a.date >= v.from_date returning a.field_id, a.provenance_id) " +
-            "select distinct field_id, replace(provenance_id::text, '-', '') as provenance_id from d",
-          [deleteFrom.map((d) => d.fieldId), deleteFrom.map((d) => d.fromDate)],
-        )
-      : [];
-    const kept = pairs.fieldIds.map((f, k) => (live.has(f) ? k : -1)).filter((k) => k >= 0);
-    if (kept.length) {
-      // The documents go as one JSON array, each parsed once; a field's documents are keyed by their hash,
-      // so a rewrite finds most of them stored already.
-      await q(
-        "insert into account_provenance (field_id, id, doc) select v.field_id, (d.ids)[d.ord], d.doc " +
-          "from unnest($1::uuid[], $2::int[]) as v(field_id, idx) " +
-          "join (select t.ord::int, $4::uuid[] as ids, t.doc from jsonb_array_elements($3::jsonb) with ordinality as t(doc, ord)) d " +
-          "on d.ord = v.idx on conflict do nothing",
-        [kept.map((k) => pairs.fieldIds[k]), kept.map((k) => pairs.docs[k]! + 1), `[${rows.provenanceTexts.join(",")}]`, rows.provenanceIds],
+    const first = await exchange([
+      "begin",
+      // The account grows by a season a batch, faster than statistics follow; a stale estimate would turn
+      // the per-field delete below into a scan of the whole table.
+      "set local enable_seqscan = off",
+      `select id from fields where id = any(${arrayLiteral(fieldIds, "uuid")}) order by id for key share`,
+      `select id from plantings where id = any(${arrayLiteral(plantingIds, "uuid")}) order by id for key share`,
+      deleteFrom.length
+        ? "with d as (delete from account_days a " +
+          `using unnest(${arrayLiteral(deleteFrom.map((d) => d.fieldId), "uuid")}, ${arrayLiteral(deleteFrom.map((d) => d.fromDate), "date")}) ` +
+          "as v(field_id, from_date) where a.field_id = v.field_id and a.date >= v.from_date returning a.field_id, a.provenance_id) " +
+          "select distinct field_id, replace(provenance_id::text, '-', '') as provenance_id from d"
+        : "select null::uuid as field_id, null::text as provenance_id where false",
+    ]);
+    const live = new Set(first[2]!.rows.map((r) => String(r.id)));
+    const livePlantings = new Set(first[3]!.rows.map((r) => String(r.id)));
+    const dropped = first[4]!.rows as { field_id: string; provenance_id: string }[];
+
+    if (rows.length) await copyIn(client, COPY_DAYS, rows.copyData());
+
+    const then: string[] = [];
+    // A document some deleted day used is stored already; the others may be new for their field.
+    const stored = new Set(dropped.map((d) => `${d.field_id}|${d.provenance_id}`));
+    const add = pairs.fieldIds
+      .map((_, k) => k)
+      .filter((k) => live.has(pairs.fieldIds[k]!) && !stored.has(`${pairs.fieldIds[k]}|${rows.provenanceIds[pairs.docs[k]!]}`));
+    if (add.length) {
+      // Each needed text goes once, all as one JSON array (checked once); pairs name them by position.
+      const texts = [...new Set(add.map((k) => pairs.docs[k]!))];
+      const position = new Map(texts.map((doc, i) => [doc, i + 1]));
+      then.push(
+        "insert into account_provenance (field_id, id, doc) select v.field_id, v.id, t.doc " +
+          `from unnest(${arrayLiteral(add.map((k) => pairs.fieldIds[k]!), "uuid")}, ${arrayLiteral(add.map((k) => rows.provenanceIds[pairs.docs[k]!]!), "uuid")}, ` +
+          `${arrayLiteral(add.map((k) => position.get(pairs.docs[k]!)!), "int")}) as v(field_id, id, idx) ` +
+          `join json_array_elements(${dollarQuoted(`[${texts.map((doc) => rows.provenanceTexts[doc]).join(",")}]`)}::json) with ordinality as t(doc, ord) ` +
+          "on t.ord = v.idx on conflict do nothing",
       );
     }
-    if (rows.length) await copyIn(client, COPY_DAYS, rows.copyData());
     const used = new Set(pairs.fieldIds.map((f, k) => `${f}|${rows.provenanceIds[pairs.docs[k]!]}`));
     const unused = dropped.filter((d) => !used.has(`${d.field_id}|${d.provenance_id}`));
     if (unused.length) {
-      await q(
-        "delete from account_provenance p using unnest($1::uuid[], $2::uuid[]) as c(field_id, id) " +
-          "where p.field_id = c.field_id and p.id = c.id " +
+      then.push(
+        `delete from account_provenance p using unnest(${arrayLiteral(unused.map((d) => d.field_id), "uuid")}, ${arrayLiteral(unused.map((d) => d.provenance_id), "uuid")}) ` +
+          "as c(field_id, id) where p.field_id = c.field_id and p.id = c.id " +
           "and not exists (select 1 from account_days a where a.field_id = c.field_id and a.provenance_id = c.id)",
-        [unused.map((d) => d.field_id), unused.map((d) => d.provenance_id)],
       );
     }
     const gone = fieldIds.filter((f) => !live.has(f));
-    if (gone.length) await q("delete from account_days where field_id = any($1::uuid[])", [gone]);
+    if (gone.length) then.push(`delete from account_days where field_id = any(${arrayLiteral(gone, "uuid")})`);
     const unlinked = plantingIds.filter((p) => !livePlantings.has(p));
     if (unlinked.length) {
-      await q("update account_days set planting_id = null where field_id = any($1::uuid[]) and planting_id = any($2::uuid[])", [fieldIds, unlinked]);
+      then.push(
+        `update account_days set planting_id = null where field_id = any(${arrayLiteral(fieldIds, "uuid")}) and planting_id = any(${arrayLiteral(unlinked, "uuid")})`,
+      );
     }
-    const liveIds = fieldIds.filter((f) => live.has(f));
-    await q("delete from account_latest where field_id = any($1::uuid[])", [liveIds]);
-    await q(`insert into account_latest (field_id, date, planting_id, depletion_end_mm, taw_mm, raw_mm, recent_etc_mm) ${LATEST_SELECT}`, [liveIds]);
-    const cleared = marks.length
-      ? await q<{ id: string }>(
-          "update fields f set account_dirty_from = null from unnest($1::uuid[], $2::bigint[]) as v(id, seq) " +
-            "where f.id = v.id and f.account_dirty_seq = v.seq returning f.id",
-          [marks.map((m) => m.fieldId), marks.map((m) => m.seq)],
-        )
-      : [];
-    await q("commit");
-    return cleared.map((r) => r.id);
+    const liveIds = arrayLiteral(fieldIds.filter((f) => live.has(f)), "uuid");
+    then.push(`delete from account_latest where field_id = any(${liveIds})`);
+    then.push(`insert into account_latest (field_id, date, planting_id, depletion_end_mm, taw_mm, raw_mm, recent_etc_mm) ${latestSelect(liveIds)}`);
+    then.push(
+      marks.length
+        ? `update fields f set account_dirty_from = null from unnest(${arrayLiteral(marks.map((m) => m.fieldId), "uuid")}, ${arrayLiteral(marks.map((m) => m.seq), "bigint")}) ` +
+            "as v(id, seq) where f.id = v.id and f.account_dirty_seq = v.seq returning f.id"
+        : "select null::uuid as id where false",
+    );
+    then.push("commit");
+    const last = await exchange(then);
+    return last[last.length - 2]!.rows.map((r) => String(r.id));
   } catch (err) {
     await client.query("rollback").catch(() => undefined);
     throw shortError(err);

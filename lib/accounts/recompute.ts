@@ -106,19 +106,24 @@ export async function recomputeFarm(farmId: string, options: RecomputeOptions = 
 
   const batchSize = options.batchSize ?? 125;
   // Batches touch disjoint fields, so they are written on two connections at once: PostgreSQL's share of
-  // the work (index entries, key checks, JSON) then runs beside the engine instead of after it.
+  // the work (heap and index entries, provenance documents) then runs beside the engine instead of after it.
   const chains: Promise<void>[] = [Promise.resolve(), Promise.resolve()];
   let failure: { err: unknown } | null = null;
+  // One row buffer per connection, reused once that connection has written its previous batch.
+  const buffers = chains.map(() => new AccountDayRows(Math.min(batchSize, setup.fields.length) * 366));
   for (let b = 0; b < setup.fields.length; b += batchSize) {
+    const chain = (b / batchSize) % chains.length;
+    await chains[chain]!.catch(() => undefined);
     if (failure) break;
     const batch = setup.fields.slice(b, b + batchSize);
-    const rows = new AccountDayRows(batch.length * 366);
+    const rows = buffers[chain]!;
+    rows.clear();
     const deleteFrom: { fieldId: string; fromDate: string }[] = [];
     const marks: { fieldId: string; seq: number }[] = [];
     for (let k = 0; k < batch.length; k++) {
       const f = batch[k]!;
-      // Let the previous batch's statement drain onto the socket while this one is computed.
-      if (k % 25 === 24) await new Promise((resolve) => setImmediate(resolve));
+      // Let the writes in flight take their next step while this batch is computed.
+      if (k % 10 === 9) await new Promise((resolve) => setImmediate(resolve));
       const mark = rows.length;
       const outcome = computeField(f, plans.get(f.id) ?? [], (segment) => {
         const run = buildFieldRun(ctx, etoCache, f, segment.planting, { from: segment.from, to: segment.to, initialDepletionMm: segment.initialDepletionMm ?? 0 }, byField);
@@ -137,7 +142,6 @@ export async function recomputeFarm(farmId: string, options: RecomputeOptions = 
       result.fields++;
     }
     // The next batch is computed while this one is written.
-    const chain = (b / batchSize) % chains.length;
     const pending = chains[chain]!.then(async () => {
       result.cleared += (await rewriteAccountDays(deleteFrom, rows, marks)).length;
     });

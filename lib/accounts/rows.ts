@@ -36,7 +36,8 @@ export class ProvenanceWriter {
 
   /** The index of the document with `key` among `out`'s distinct documents; `build` makes its text. */
   index(out: AccountDayRows, key: string, build: () => string): number {
-    if (this.batch !== out) {
+    // A new or emptied batch starts its own numbering.
+    if (this.batch !== out || out.provenanceTexts.length === 0) {
       this.batch = out;
       this.documents = new Map();
     }
