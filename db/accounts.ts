@@ -1,5 +1,5 @@
 import "server-only";
-import { createHash } from "node:crypto";
+import { hash } from "node:crypto";
 import type { Knex } from "knex";
 import type { PoolClient } from "pg";
 import { from as copyFrom } from "pg-copy-streams";
@@ -134,7 +134,7 @@ export class AccountDayRows {
 
   /** Adds a provenance document (JSON text) to the batch; returns its index for {@link AccountDayRun.provenance}. */
   addProvenance(json: string): number {
-    const id = createHash("md5").update(json).digest("hex");
+    const id = hash("md5", json);
     this.provenanceTexts.push(json);
     this.provenanceIds.push(id);
     this.provenanceWords.push(uuidWords(id));

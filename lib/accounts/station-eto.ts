@@ -48,13 +48,22 @@ export class StationEtoCache {
   }
 }
 
-/** The ISO date after `iso`, without a Date round trip for the common case. */
+const nextDates = new Map<string, string>();
+
+/** The ISO date after `iso`; remembered, since a farm's recompute walks the same season once per field. */
 export function nextIsoDate(iso: string): string {
+  let next = nextDates.get(iso);
+  if (next !== undefined) return next;
   const d = Number(iso.slice(8, 10));
-  if (d < 28) return `${iso.slice(0, 8)}${String(d + 1).padStart(2, "0")}`;
-  const t = new Date(`${iso}T00:00:00Z`);
-  t.setUTCDate(t.getUTCDate() + 1);
-  return t.toISOString().slice(0, 10);
+  if (d < 28) next = `${iso.slice(0, 8)}${String(d + 1).padStart(2, "0")}`;
+  else {
+    const t = new Date(`${iso}T00:00:00Z`);
+    t.setUTCDate(t.getUTCDate() + 1);
+    next = t.toISOString().slice(0, 10);
+  }
+  if (nextDates.size >= 20_000) nextDates.clear();
+  nextDates.set(iso, next);
+  return next;
 }
 
 /**
