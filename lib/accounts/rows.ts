@@ -34,20 +34,34 @@ export class ProvenanceWriter {
     return p;
   }
 
-  /** The index of the document with `key` among `out`'s distinct documents; `build` makes its text. */
-  index(out: AccountDayRows, key: string, build: () => string): number {
+  /** The index of the document with `key` among `out`'s distinct documents, or -1 when it has none yet. */
+  find(out: AccountDayRows, key: string): number {
     // A new or emptied batch starts its own numbering.
     if (this.batch !== out || out.provenanceTexts.length === 0) {
       this.batch = out;
       this.documents = new Map();
     }
-    let k = this.documents.get(key);
-    if (k === undefined) {
-      k = out.addProvenance(build());
-      this.documents.set(key, k);
-    }
+    return this.documents.get(key) ?? -1;
+  }
+
+  /** Adds the document `json` under `key` to `out` (after {@link find} said it has none); returns its index. */
+  add(out: AccountDayRows, key: string, json: string): number {
+    const k = out.addProvenance(json);
+    this.documents.set(key, k);
     return k;
   }
+}
+
+/** A day's provenance document. */
+function provenanceJson(
+  eto: string, rain: string, runoff: string, irrigation: string, stage: string | undefined,
+  dual: { kcb: number; ke: number } | null, carriedDepletionMm: number | null, qc: readonly string[] | undefined,
+): string {
+  let json = `{"eto":${eto},"rain":${rain},"runoff":${runoff},"irrigation":"${irrigation}","stage":"${stage}"`;
+  if (dual) json += `,"kcb":${dual.kcb},"ke":${dual.ke}`;
+  if (carriedDepletionMm !== null) json += `,"carriedDepletionMm":${carriedDepletionMm}`;
+  if (qc) json += `,"qc":${JSON.stringify(qc)}`;
+  return json + "}";
 }
 
 /** Appends a computed run's days to `out`; returns how many. */
@@ -103,16 +117,16 @@ export function appendRunDays(out: AccountDayRows, run: FieldRun, cols: FieldSea
     const eto = writer.piece(etoObj);
     const rain = writer.piece(rainObj);
     const irrigation = IRRIGATION_BASIS[basis];
-    const build = (): string => {
-      let json = `{"eto":${eto.json},"rain":${rain.json},"runoff":${runoff.json},"irrigation":"${irrigation}","stage":"${stage}"`;
-      if (dual) json += `,"kcb":${crop.kc[d]},"ke":${loop.ke[d]}`;
-      if (reset) json += `,"carriedDepletionMm":${loop.carriedDepletionMm[d]}`;
-      if (qc) json += `,"qc":${JSON.stringify(qc)}`;
-      return json + "}";
-    };
     // Days with their own numbers in the document (dual coefficient, soil-check resets) are never shared.
     const key = dual || reset ? `${fieldId}|${startDate}|${d}` : `${eto.id},${rain.id},${runoff.id},${irrigation},${stage}${qc ? qc.join() : ""}`;
-    const doc = writer.index(out, key, build);
+    let doc = writer.find(out, key);
+    if (doc < 0) {
+      const json = provenanceJson(
+        eto.json, rain.json, runoff.json, irrigation!, stage,
+        dual ? { kcb: crop.kc[d]!, ke: loop.ke[d]! } : null, reset ? loop.carriedDepletionMm[d]! : null, qc,
+      );
+      doc = writer.add(out, key, json);
+    }
     docs[d] = doc;
     if (own) prevDoc = -1;
     else {
