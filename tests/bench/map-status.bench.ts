@@ -1,11 +1,12 @@
 /**
  * The farm map's status read behind GET /api/v1/farms/:farmId/status for 2,000 fields with a year of
- * stored account days each: the query, the bands and the JSON body the handler answers with. (The route
- * handler itself cannot be loaded under the react-server condition outside Next; its session and
- * membership check add one primary-key lookup.)
+ * stored account days each: the query (one row per field from account_latest, which the recompute keeps),
+ * the bands and the JSON body the handler answers with. (The route handler itself cannot be loaded under
+ * the react-server condition outside Next; its session and membership check add one primary-key lookup.)
  * Run: DATABASE_URL=<test database> node --conditions=react-server --import tsx tests/bench/map-status.bench.ts
  * Target: median under 100 ms.
  */
+import { readFileSync } from "node:fs";
 import { db } from "@/db/knex";
 import { recomputeFarm } from "@/lib/accounts/recompute";
 import { farmStatus } from "@/lib/accounts/status";
@@ -24,6 +25,7 @@ async function main(): Promise<void> {
   try {
     const filled = await recomputeFarm(farm.farmId, { all: true, today: farm.today });
     console.log(`bench farm: ${filled.fields} fields, ${filled.days.toLocaleString("en")} stored account days`);
+    console.log(`load average at start: ${readFileSync("/proc/loadavg", "utf8").split(" ").slice(0, 3).join(" ")}`);
     const get = async () => JSON.parse(await Response.json({ data: await farmStatus(farm.farmId) }).text()) as { data: unknown[] };
     for (let k = 0; k < WARM_UP; k++) await get();
     const times: number[] = [];
