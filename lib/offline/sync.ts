@@ -17,6 +17,7 @@ type Outcome = { kind: "sent" } | { kind: "retry"; note: string } | { kind: "rej
 
 const listeners = new Set<() => void>();
 let running: Promise<void> | null = null;
+let forceAgain = false;
 let timer: ReturnType<typeof setTimeout> | null = null;
 
 /** Calls `fn` whenever an entry changes state on this page. */
@@ -95,22 +96,35 @@ function schedule(farmId: string, userId: string, entries: QueuedEntry[]): void 
   timer = setTimeout(() => void flushQueue(farmId, userId), Math.max(1_000, Math.min(...waits)));
 }
 
+async function flushOnce(farmId: string, userId: string, force: boolean): Promise<void> {
+  try {
+    if (typeof navigator !== "undefined" && navigator.onLine === false) return;
+    const due = (await listEntries(farmId, userId)).filter((e) => e.status === "pending" && (force || e.nextTryAt <= Date.now()));
+    for (const e of due) await sendOne(e.id);
+    await pruneSent();
+  } finally {
+    schedule(farmId, userId, await listEntries(farmId, userId));
+  }
+}
+
 /**
  * Sends this person's pending entries for the farm, one at a time and oldest first. `force` ignores the
- * backoff (the connection just came back, or the worker pressed "send now").
+ * backoff (the connection just came back, or the worker pressed "send now"). One pass runs at a time; a
+ * forced call during a pass gets one more forced pass after it, so a connection that comes back while the
+ * previous pass was still finding none is not missed.
  */
 export function flushQueue(farmId: string, userId: string, force = false): Promise<void> {
-  if (running) return running;
-  running = (async () => {
-    try {
-      if (typeof navigator !== "undefined" && navigator.onLine === false) return;
-      const due = (await listEntries(farmId, userId)).filter((e) => e.status === "pending" && (force || e.nextTryAt <= Date.now()));
-      for (const e of due) await sendOne(e.id);
-      await pruneSent();
-    } finally {
-      running = null;
-      schedule(farmId, userId, await listEntries(farmId, userId));
+  if (running) {
+    forceAgain ||= force;
+    return running;
+  }
+  const pass: Promise<void> = flushOnce(farmId, userId, force).finally(() => {
+    running = null;
+    if (forceAgain) {
+      forceAgain = false;
+      void flushQueue(farmId, userId, true);
     }
-  })();
-  return running;
+  });
+  running = pass;
+  return pass;
 }
