@@ -33,8 +33,7 @@ async function alertsOf(page: Page, farmId: string): Promise<NotificationsBody> 
   return body;
 }
 
-// Parked: not yet green on a clean `npm test` run (it waits on background work that needs a steadier wait).
-test.fixme("the manager sees alerts in the centre, opens a field from one, and a pushed alert becomes a notification", async ({ page }, testInfo) => {
+test("the manager sees alerts in the centre, opens a field from one, and a pushed alert becomes a notification", async ({ page }, testInfo) => {
   test.setTimeout(240_000);
   const farmId = await openKestrelBend(page, DEMO.manager);
   const alerts = await alertsOf(page, farmId);
@@ -50,18 +49,16 @@ test.fixme("the manager sees alerts in the centre, opens a field from one, and a
   expect(axe.violations.filter((v) => v.impact === "serious" || v.impact === "critical").map((v) => v.id)).toEqual([]);
 
   // A push as the service worker receives it: the notification carries the field's address.
+  // Listen before enabling the domain: Chromium reports the registrations as soon as it is enabled.
   const cdp = await page.context().newCDPSession(page);
+  const registrations: { registrationId: string; scopeURL: string }[] = [];
+  cdp.on("ServiceWorker.workerRegistrationUpdated", (e: { registrations: { registrationId: string; scopeURL: string }[] }) => {
+    registrations.push(...e.registrations);
+  });
+  const scope = await page.evaluate(async () => (await navigator.serviceWorker.ready).scope);
   await cdp.send("ServiceWorker.enable");
-  const registration = await page.evaluate(async () => {
-    const reg = await navigator.serviceWorker.ready;
-    return { scope: reg.scope };
-  });
-  const registrationId = await new Promise<string>((resolve) => {
-    cdp.on("ServiceWorker.workerRegistrationUpdated", (e: { registrations: { registrationId: string; scopeURL: string }[] }) => {
-      const r = e.registrations.find((x) => x.scopeURL === registration.scope);
-      if (r) resolve(r.registrationId);
-    });
-  });
+  await expect.poll(() => registrations.find((r) => r.scopeURL === scope)?.registrationId ?? null).not.toBeNull();
+  const registrationId = registrations.find((r) => r.scopeURL === scope)!.registrationId;
   await page.context().grantPermissions(["notifications"]);
   const payload = { title: fieldAlert.title, body: "Delivered through DevTools", url: fieldAlert.url, tag: `rootbank-${fieldAlert.id}`, notificationId: fieldAlert.id, farmId };
   await cdp.send("ServiceWorker.deliverPushMessage", { origin: new URL(page.url()).origin, registrationId, data: JSON.stringify(payload) });
