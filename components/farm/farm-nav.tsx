@@ -21,7 +21,7 @@ export function FarmNav({ links, homeHref }: { links: FarmNavLink[]; homeHref: s
             key={l.href}
             href={l.href}
             aria-current={current ? "page" : undefined}
-            className={`tap flex items-center rounded-lg px-3 font-bold ${current ? "bg-river-700 text-white" : "text-river-700 hover:bg-river-50"}`}
+            className={`tap flex shrink-0 items-center whitespace-nowrap rounded-lg px-3 font-bold ${current ? "bg-river-700 text-white" : "text-river-700 hover:bg-river-50"}`}
           >
             {l.label}
           </Link>
