@@ -68,7 +68,7 @@ export function AgronomyPanel({ farmId, plantings }: { farmId: string; plantings
             type="button"
             aria-pressed={view === v.id}
             onClick={() => setView(v.id)}
-            className={`tap whitespace-nowrap rounded-lg px-3 font-bold ${view === v.id ? "bg-river-700 text-white" : "text-river-700 hover:bg-river-50"}`}
+            className={`tap shrink-0 whitespace-nowrap rounded-lg px-3 font-bold ${view === v.id ? "bg-river-700 text-white" : "text-river-700 hover:bg-river-50"}`}
           >
             {v.label}
           </button>

@@ -232,9 +232,11 @@ export function CurveEditor({
               </div>
             </dl>
             <p className="text-xs text-ink/70">
-              {form.climateAdjust
-                ? `Adjusted for this farm's wind and humidity in those stages (FAO-56 eq. 62${used?.edited?.midWindMs != null ? `: u2 ${used.edited.midWindMs.toFixed(1)} m/s, RHmin ${used.edited.midRhMinPct?.toFixed(0)} %` : ""}).`
-                : "Climate adjustment is off: the table values are used as they are."}
+              {!form.climateAdjust
+                ? "Climate adjustment is off: the table values are used as they are."
+                : used?.edited && !used.edited.adjusted
+                  ? "No weather recorded yet for the mid and late stages, so the table values are used until it comes in (FAO-56 eq. 62 then adjusts them)."
+                  : `Adjusted for this farm's wind and humidity in those stages (FAO-56 eq. 62${used?.edited?.midWindMs != null ? `: u2 ${used.edited.midWindMs.toFixed(1)} m/s, RHmin ${used.edited.midRhMinPct?.toFixed(0)} %` : ""}).`}
             </p>
           </div>
           <fieldset className="grid grid-cols-2 gap-3">
