@@ -71,6 +71,28 @@ const FLOAT_COLUMNS = [
 const COPY_DAYS =
   `copy account_days (field_id, date, planting_id, ${FLOAT_COLUMNS.map(([c]) => c).join(", ")}, soil_check_reset, provenance_id) ` +
   "from stdin with (format binary)";
+const COPY_DOCUMENTS = "copy account_provenance (field_id, id, doc) from stdin with (format binary)";
+
+/** Provenance documents in binary COPY format: (field, document id, JSON text) for each pair `k`. */
+function documentsCopyData(fieldIds: readonly string[], ids: readonly string[], texts: readonly string[]): Buffer {
+  let size = COPY_HEADER.length + COPY_TRAILER_BYTES;
+  const lengths = texts.map((t) => Buffer.byteLength(t, "utf8"));
+  for (const n of lengths) size += 2 + (4 + 16) * 2 + 4 + n;
+  const buf = Buffer.allocUnsafe(size);
+  let o = COPY_HEADER.copy(buf, 0);
+  for (let k = 0; k < texts.length; k++) {
+    o = buf.writeInt16BE(3, o);
+    o = buf.writeInt32BE(16, o);
+    o += buf.write(fieldIds[k]!.replace(/-/g, ""), o, "hex");
+    o = buf.writeInt32BE(16, o);
+    o += buf.write(ids[k]!, o, "hex");
+    o = buf.writeInt32BE(lengths[k]!, o);
+    o += buf.write(texts[k]!, o, "utf8");
+  }
+  buf.writeInt16BE(-1, o);
+  return buf;
+}
+
 /** Fields per row of the binary COPY: field, date, planting, the numbers, the reset flag, the provenance. */
 const COPY_FIELDS = 3 + FLOAT_COLUMNS.length + 2;
 const COPY_ROW_BYTES = 2 + (4 + 16) + (4 + 4) + (4 + 16) + FLOAT_COLUMNS.length * (4 + 8) + (4 + 1) + (4 + 16);
@@ -270,24 +292,18 @@ function arrayLiteral(values: readonly (string | number)[], type: string): strin
   return `'{${values.join(",")}}'::${type}[]`;
 }
 
-/** A dollar-quoted literal whose tag does not occur in the text. */
-function dollarQuoted(text: string): string {
-  let tag = "$rb$";
-  for (let k = 0; text.includes(tag); k++) tag = `$rb${k}$`;
-  return `${tag}${text}${tag}`;
-}
-
 type Result = { rows: Record<string, unknown>[] };
 
 /**
- * Rewrites fields' account days in one transaction on one connection, in three exchanges so that the
+ * Rewrites fields' account days in one transaction on one connection, in a few exchanges so that the
  * server waits little on a client busy computing the next batch:
- * 1. lock the fields and plantings written for (key share, as a foreign key check would), delete each
- *    field's days from its date on, and list the documents the deleted days used;
- * 2. copy `rows` in (binary COPY);
- * 3. store the documents a field did not have, drop those no day uses any more, drop or unlink the rows
- *    of a field or planting deleted before the lock, refresh the fields' latest-day rows, clear the marks
- *    whose counter is unchanged (compare-and-set), and commit.
+ * 1. lock the fields and plantings written for (key share, as a foreign key check would), list the
+ *    fields' stored documents, delete each field's days from its date on, and list the documents the
+ *    deleted days used;
+ * 2. copy `rows` in, then the documents a field did not have (binary COPY);
+ * 3. drop the documents no day uses any more, drop or unlink the rows of a field or planting deleted
+ *    before the lock, refresh the fields' latest-day rows, clear the marks whose counter is unchanged
+ *    (compare-and-set), and commit.
  * Returns the ids whose mark was cleared.
  */
 export async function rewriteAccountDays(
@@ -315,6 +331,7 @@ export async function rewriteAccountDays(
       "set local enable_seqscan = off",
       `select id from fields where id = any(${arrayLiteral(fieldIds, "uuid")}) order by id for key share`,
       `select id from plantings where id = any(${arrayLiteral(plantingIds, "uuid")}) order by id for key share`,
+      `select field_id, replace(id::text, '-', '') as id from account_provenance where field_id = any(${arrayLiteral(fieldIds, "uuid")})`,
       deleteFrom.length
         ? "with d as (delete from account_days a " +
           `using unnest(${arrayLiteral(deleteFrom.map((d) => d.fieldId), "uuid")}, ${arrayLiteral(deleteFrom.map((d) => d.fromDate), "date")}) ` +
@@ -324,28 +341,27 @@ export async function rewriteAccountDays(
     ]);
     const live = new Set(first[2]!.rows.map((r) => String(r.id)));
     const livePlantings = new Set(first[3]!.rows.map((r) => String(r.id)));
-    const dropped = first[4]!.rows as { field_id: string; provenance_id: string }[];
+    const stored = new Set(first[4]!.rows.map((r) => `${String(r.field_id)}|${String(r.id)}`));
+    const dropped = first[5]!.rows as { field_id: string; provenance_id: string }[];
 
     if (rows.length) await copyIn(client, COPY_DAYS, rows.copyData());
-
-    const then: string[] = [];
-    // A document some deleted day used is stored already; the others may be new for their field.
-    const stored = new Set(dropped.map((d) => `${d.field_id}|${d.provenance_id}`));
+    // The documents a field does not have yet (we hold its key-share lock, so no one else adds them).
     const add = pairs.fieldIds
       .map((_, k) => k)
       .filter((k) => live.has(pairs.fieldIds[k]!) && !stored.has(`${pairs.fieldIds[k]}|${rows.provenanceIds[pairs.docs[k]!]}`));
     if (add.length) {
-      // Each needed text goes once, all as one JSON array (checked once); pairs name them by position.
-      const texts = [...new Set(add.map((k) => pairs.docs[k]!))];
-      const position = new Map(texts.map((doc, i) => [doc, i + 1]));
-      then.push(
-        "insert into account_provenance (field_id, id, doc) select v.field_id, v.id, t.doc " +
-          `from unnest(${arrayLiteral(add.map((k) => pairs.fieldIds[k]!), "uuid")}, ${arrayLiteral(add.map((k) => rows.provenanceIds[pairs.docs[k]!]!), "uuid")}, ` +
-          `${arrayLiteral(add.map((k) => position.get(pairs.docs[k]!)!), "int")}) as v(field_id, id, idx) ` +
-          `join json_array_elements(${dollarQuoted(`[${texts.map((doc) => rows.provenanceTexts[doc]).join(",")}]`)}::json) with ordinality as t(doc, ord) ` +
-          "on t.ord = v.idx on conflict do nothing",
+      await copyIn(
+        client,
+        COPY_DOCUMENTS,
+        documentsCopyData(
+          add.map((k) => pairs.fieldIds[k]!),
+          add.map((k) => rows.provenanceIds[pairs.docs[k]!]!),
+          add.map((k) => rows.provenanceTexts[pairs.docs[k]!]!),
+        ),
       );
     }
+
+    const then: string[] = [];
     const used = new Set(pairs.fieldIds.map((f, k) => `${f}|${rows.provenanceIds[pairs.docs[k]!]}`));
     const unused = dropped.filter((d) => !used.has(`${d.field_id}|${d.provenance_id}`));
     if (unused.length) {
