@@ -294,6 +294,17 @@ function arrayLiteral(values: readonly (string | number)[], type: string): strin
 
 type Result = { rows: Record<string, unknown>[] };
 
+/** (field, document id) pairs as each field's set of document ids. */
+function byField(pairs: readonly (readonly [string, string])[]): Map<string, Set<string>> {
+  const out = new Map<string, Set<string>>();
+  for (const [field, id] of pairs) {
+    const set = out.get(field);
+    if (set) set.add(id);
+    else out.set(field, new Set([id]));
+  }
+  return out;
+}
+
 /**
  * Rewrites fields' account days in one transaction on one connection, in a few exchanges so that the
  * server waits little on a client busy computing the next batch:
@@ -341,14 +352,14 @@ export async function rewriteAccountDays(
     ]);
     const live = new Set(first[2]!.rows.map((r) => String(r.id)));
     const livePlantings = new Set(first[3]!.rows.map((r) => String(r.id)));
-    const stored = new Set(first[4]!.rows.map((r) => `${String(r.field_id)}|${String(r.id)}`));
+    const stored = byField(first[4]!.rows.map((r) => [String(r.field_id), String(r.id)] as const));
     const dropped = first[5]!.rows as { field_id: string; provenance_id: string }[];
 
     if (rows.length) await copyIn(client, COPY_DAYS, rows.copyData());
     // The documents a field does not have yet (we hold its key-share lock, so no one else adds them).
     const add = pairs.fieldIds
       .map((_, k) => k)
-      .filter((k) => live.has(pairs.fieldIds[k]!) && !stored.has(`${pairs.fieldIds[k]}|${rows.provenanceIds[pairs.docs[k]!]}`));
+      .filter((k) => live.has(pairs.fieldIds[k]!) && !stored.get(pairs.fieldIds[k]!)?.has(rows.provenanceIds[pairs.docs[k]!]!));
     if (add.length) {
       await copyIn(
         client,
@@ -362,8 +373,8 @@ export async function rewriteAccountDays(
     }
 
     const then: string[] = [];
-    const used = new Set(pairs.fieldIds.map((f, k) => `${f}|${rows.provenanceIds[pairs.docs[k]!]}`));
-    const unused = dropped.filter((d) => !used.has(`${d.field_id}|${d.provenance_id}`));
+    const used = byField(pairs.fieldIds.map((f, k) => [f, rows.provenanceIds[pairs.docs[k]!]!] as const));
+    const unused = dropped.filter((d) => !used.get(d.field_id)?.has(d.provenance_id));
     if (unused.length) {
       then.push(
         `delete from account_provenance p using unnest(${arrayLiteral(unused.map((d) => d.field_id), "uuid")}, ${arrayLiteral(unused.map((d) => d.provenance_id), "uuid")}) ` +

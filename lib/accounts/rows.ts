@@ -13,6 +13,8 @@ import { nextIsoDate } from "./station-eto";
 const CONDITIONS = ["dry", "average", "wet"] as const;
 const IRRIGATION_BASIS = ["none", "gross", "net", "mixed"] as const;
 const NONE = { id: 0, json: '{"method":"none"}' };
+/** Shared documents a run remembers by their pieces. */
+const RECENT_DOCUMENTS = 6;
 
 /**
  * Serialises provenance pieces once per distinct object, and numbers each batch's distinct documents.
@@ -91,13 +93,9 @@ export function appendRunDays(out: AccountDayRows, run: FieldRun, cols: FieldSea
   const docs = new Int32Array(n);
   const hasQc = run.qc.size > 0;
   let date = startDate;
-  // The pieces of the last shared document: a day with the same pieces takes the same document.
-  let prevDoc = -1;
-  let prevEto: object | null = null;
-  let prevRain: object | null = null;
-  let prevRunoff: object | null = null;
-  let prevIrrigation = -1;
-  let prevStage: string | undefined;
+  // The pieces of the last few shared documents (most days repeat one of them): a day with the same
+  // pieces takes the same document, without building its key.
+  const recent: { doc: number; eto: object; rain: object; runoff: object | null; basis: number; stage: string | undefined }[] = [];
   for (let d = 0; d < n; d++) {
     const reset = loop.soilCheckApplied[d] === 1;
     const cond = loop.condition[d]!;
@@ -109,9 +107,19 @@ export function appendRunDays(out: AccountDayRows, run: FieldRun, cols: FieldSea
     const qc = hasQc ? run.qc.get(date) : undefined;
     if (hasQc) date = nextIsoDate(date);
     const own = dual || reset || qc !== undefined;
-    if (!own && prevDoc >= 0 && etoObj === prevEto && rainObj === prevRain && runoffObj === prevRunoff && basis === prevIrrigation && stage === prevStage) {
-      docs[d] = prevDoc;
-      continue;
+    if (!own) {
+      let hit = -1;
+      for (let r = 0; r < recent.length; r++) {
+        const c = recent[r]!;
+        if (c.eto === etoObj && c.rain === rainObj && c.runoff === runoffObj && c.basis === basis && c.stage === stage) {
+          hit = c.doc;
+          break;
+        }
+      }
+      if (hit >= 0) {
+        docs[d] = hit;
+        continue;
+      }
     }
     const runoff = runoffObj ? writer.piece(runoffObj) : NONE;
     const eto = writer.piece(etoObj);
@@ -128,14 +136,9 @@ export function appendRunDays(out: AccountDayRows, run: FieldRun, cols: FieldSea
       doc = writer.add(out, key, json);
     }
     docs[d] = doc;
-    if (own) prevDoc = -1;
-    else {
-      prevDoc = doc;
-      prevEto = etoObj;
-      prevRain = rainObj;
-      prevRunoff = runoffObj;
-      prevIrrigation = basis;
-      prevStage = stage;
+    if (!own) {
+      if (recent.length === RECENT_DOCUMENTS) recent.pop();
+      recent.unshift({ doc, eto: etoObj, rain: rainObj, runoff: runoffObj, basis, stage });
     }
   }
   out.append({
