@@ -18,8 +18,7 @@ const hectares = async (page: Page, text: RegExp): Promise<number> => {
   return Number(/([\d.]+) ha/.exec(content)?.[1]);
 };
 
-// Parked: not yet green on a clean `npm test` run (it waits on background work that needs a steadier wait).
-test.fixme("a manager draws a new field on the map, then moves a corner, and the area follows", async ({ page }, info) => {
+test("a manager draws a new field on the map, then moves a corner, and the area follows", async ({ page }, info) => {
   const farmId = await openKestrelBend(page, DEMO.manager);
   await openSetup(page, farmId);
   const name = `Drawn ${info.project.name} ${Date.now()}`;
@@ -54,8 +53,13 @@ test.fixme("a manager draws a new field on the map, then moves a corner, and the
 
   // Pull the far corner outwards: the square grows, and so must its area.
   await page.getByRole("button", { name: "Edit corners" }).click();
-  await page.waitForTimeout(500);
-  const [fx, fy] = corners[2]!;
+  // Saving moved the page; find the far corner's handle where it is now (Geoman's vertex markers).
+  await map.scrollIntoViewIfNeeded();
+  const handles = map.locator(".marker-icon:not(.marker-icon-middle)");
+  await expect(handles.first()).toBeVisible();
+  const boxes = (await handles.evaluateAll((els) => els.map((e) => e.getBoundingClientRect().toJSON() as DOMRect))).filter((b) => b.width > 0);
+  const far = boxes.reduce((a, b) => (b.x + b.y > a.x + a.y ? b : a));
+  const [fx, fy] = [far.x + far.width / 2, far.y + far.height / 2];
   await page.mouse.move(fx, fy);
   await page.mouse.down();
   await page.mouse.move(fx + side * 0.4, fy + side * 0.4, { steps: 8 });

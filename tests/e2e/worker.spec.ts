@@ -44,8 +44,7 @@ async function openLog(page: Page, farmId: string): Promise<void> {
   await expect(page.getByText("Opening the phone's store…")).toHaveCount(0);
 }
 
-// Parked: not yet green on a clean `npm test` run (it waits on background work that needs a steadier wait).
-test.fixme("a worker logs rain offline; it waits on the phone, is sent once when back online, and reaches the field's account", async ({ page, context }, info) => {
+test("a worker logs rain offline; it waits on the phone, is sent once when back online, and reaches the field's account", async ({ page, context }, info) => {
   const farmId = await openKestrelBend(page, DEMO.worker);
   const gauges = await api<{ data: { id: string; name: string }[] }>(page, `/api/v1/farms/${farmId}/gauges`);
   const gauge = gauges.data.find((g) => g.name === GAUGE)!;
@@ -102,8 +101,7 @@ test.fixme("a worker logs rain offline; it waits on the phone, is sent once when
     .toBeCloseTo(17.4, 1);
 });
 
-// Parked: not yet green on a clean `npm test` run (it waits on background work that needs a steadier wait).
-test.fixme("an entry the server refuses stays on the phone with the server's reason, and can be discarded", async ({ page }, info) => {
+test("an entry the server refuses stays on the phone with the server's reason, and can be discarded", async ({ page }, info) => {
   const farmId = await openKestrelBend(page, DEMO.worker);
   await openLog(page, farmId);
   await page.getByText(GAUGE, { exact: true }).click();
