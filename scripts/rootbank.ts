@@ -220,6 +220,8 @@ async function runBench(): Promise<void> {
   onInterrupt();
   const { env, urls } = await prepare(TEST_PORTS);
   const benchEnv: NodeJS.ProcessEnv = { ...env, DATABASE_URL: urls.test, NODE_ENV: "production" };
+  // The benches write to the test database's tables as the current migrations shape them.
+  migrate(benchEnv);
   const files = existsSync("tests/bench") ? readdirSync("tests/bench").filter((f) => f.endsWith(".bench.ts")).sort() : [];
   let status = 0;
   for (const file of files) {
