@@ -120,23 +120,36 @@ export function CurveEditor({
       revalidateOnFocus: false,
     },
   );
-  // After a save, follow the field's mark until the worker has rewritten the account.
-  const status = useSWR<{ data: { id: string; dirty: boolean }[] }>(
-    recomputing ? `/api/v1/farms/${farmId}/status` : null,
-    fetchJson,
-    { refreshInterval: 1500 },
-  );
-  const fieldDirty = status.data?.data.find((f) => f.id === planting.fieldId)?.dirty;
+  // After a save, follow the field's mark until the worker has rewritten the account. Polled directly,
+  // not through SWR: a status cached by the map from before the save would say "not dirty" at once.
+  const revalidatePreview = preview.mutate;
   useEffect(() => {
-    if (recomputing && fieldDirty === false) {
-      setRecomputing(false);
-      setMessage({
-        tone: "success",
-        text: "Saved. The field's water account has been recomputed with the new curve.",
-      });
-      void preview.mutate();
-    }
-  }, [recomputing, fieldDirty, preview]);
+    if (!recomputing) return;
+    let stopped = false;
+    const look = async () => {
+      try {
+        const status = await fetchJson<{ data: { id: string; dirty: boolean }[] }>(
+          `/api/v1/farms/${farmId}/status`,
+        );
+        if (stopped || status.data.find((f) => f.id === planting.fieldId)?.dirty !== false) return;
+        stopped = true;
+        setRecomputing(false);
+        setMessage({
+          tone: "success",
+          text: "Saved. The field's water account has been recomputed with the new curve.",
+        });
+        void revalidatePreview();
+      } catch {
+        // a dropped connection: the next look tries again
+      }
+    };
+    const timer = setInterval(() => void look(), 1500);
+    void look();
+    return () => {
+      stopped = true;
+      clearInterval(timer);
+    };
+  }, [recomputing, farmId, planting.fieldId, revalidatePreview]);
 
   const set = (k: keyof Form, v: string | boolean) => setForm((f) => ({ ...f, [k]: v }));
   const changed = Object.keys(edit).length > 0;
