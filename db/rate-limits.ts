@@ -28,6 +28,15 @@ export async function hitRateLimit(key: string, windowS: number, limit: number):
   };
 }
 
+/** Takes back one hit of the current window (an attempt that turned out not to count, e.g. a sign-in that succeeded). */
+export async function forgiveRateLimit(key: string, windowS: number): Promise<void> {
+  await db.raw(
+    `update rate_limits set count = greatest(count - 1, 0)
+      where key = ? and window_start = to_timestamp(floor(extract(epoch from now()) / ?) * ?)`,
+    [key, windowS, windowS],
+  );
+}
+
 /** Removes windows that ended more than a day ago. */
 export async function pruneRateLimits(): Promise<number> {
   return db("rate_limits").where("window_start", "<", db.raw("now() - interval '1 day'")).delete();

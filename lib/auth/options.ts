@@ -3,11 +3,15 @@ import bcrypt from "bcryptjs";
 import type { NextAuthOptions } from "next-auth";
 import CredentialsProvider from "next-auth/providers/credentials";
 import { findCredentials } from "@/db/users";
-import { hitRateLimit } from "@/db/rate-limits";
+import { forgiveRateLimit, hitRateLimit } from "@/db/rate-limits";
 import { env } from "@/lib/env";
 import { signInSchema } from "@/lib/validation/auth";
 
-/** Sign-in attempts allowed per window, per account and per network address. */
+/**
+ * Failed sign-in attempts allowed per window, per account and per network address. Every attempt is
+ * counted before the password is checked (so a flood is refused without bcrypt work); a successful one is
+ * then taken back, so a team signing in many times from one office never locks itself out.
+ */
 export const SIGN_IN_LIMITS = { windowS: 15 * 60, perAccount: 10, perAddress: 50 };
 
 export const TOO_MANY_ATTEMPTS = "Too many sign-in attempts. Wait 15 minutes, or reset your password by e-mail.";
@@ -31,9 +35,10 @@ export const authOptions: NextAuthOptions = {
         const parsed = signInSchema.safeParse(credentials);
         if (!parsed.success) return null;
         const { email, password } = parsed.data;
+        const keys = [`sign-in:account:${email}`, `sign-in:address:${clientAddress(req?.headers)}`] as const;
         const [perAccount, perAddress] = await Promise.all([
-          hitRateLimit(`sign-in:account:${email}`, SIGN_IN_LIMITS.windowS, SIGN_IN_LIMITS.perAccount),
-          hitRateLimit(`sign-in:address:${clientAddress(req?.headers)}`, SIGN_IN_LIMITS.windowS, SIGN_IN_LIMITS.perAddress),
+          hitRateLimit(keys[0], SIGN_IN_LIMITS.windowS, SIGN_IN_LIMITS.perAccount),
+          hitRateLimit(keys[1], SIGN_IN_LIMITS.windowS, SIGN_IN_LIMITS.perAddress),
         ]);
         if (!perAccount.allowed || !perAddress.allowed) throw new Error(TOO_MANY_ATTEMPTS);
         const found = await findCredentials(email);
@@ -41,6 +46,7 @@ export const authOptions: NextAuthOptions = {
         const hash = found?.passwordHash ?? "$2b$10$CwTycUXWue0Thq9StjUM0uJ8.cPbJnsg1y3dCjGp3s/dw4H6bBnBa";
         const ok = await bcrypt.compare(password, hash);
         if (!ok || !found?.passwordHash) return null;
+        await Promise.all(keys.map((key) => forgiveRateLimit(key, SIGN_IN_LIMITS.windowS)));
         return { id: found.user.id, email: found.user.email, name: found.user.name };
       },
     }),

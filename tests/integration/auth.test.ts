@@ -45,6 +45,18 @@ describe("sign-in", () => {
     await expect(authorize({ email: user.email, password: TEST_PASSWORD }, req)).rejects.toThrow(TOO_MANY_ATTEMPTS);
   });
 
+  it("counts only failed attempts: a person who signs in often is never locked out", async () => {
+    const user = await createUser("often");
+    const address = someAddress();
+    for (let i = 0; i < SIGN_IN_LIMITS.perAccount + 5; i++) {
+      expect(await authorize({ email: user.email, password: TEST_PASSWORD }, address)).toMatchObject({ id: user.id });
+    }
+    for (let i = 0; i < SIGN_IN_LIMITS.perAccount; i++) {
+      expect(await authorize({ email: user.email, password: "wrong guess" }, address)).toBeNull();
+    }
+    await expect(authorize({ email: user.email, password: TEST_PASSWORD }, address)).rejects.toThrow(TOO_MANY_ATTEMPTS);
+  });
+
   it("limits attempts per network address across accounts", async () => {
     const address = someAddress();
     for (let i = 0; i < SIGN_IN_LIMITS.perAddress; i++) {
