@@ -98,7 +98,9 @@ export function ensureCluster(): Cluster {
   const running = asPostgres(binDir, "pg_ctl", ["status", "-D", dataDir], true) === 0;
   if (!running) {
     say(`starting PostgreSQL on 127.0.0.1:${PG_PORT}`);
-    const opts = `-c listen_addresses=127.0.0.1 -c port=${PG_PORT} -c unix_socket_directories=${socketDir}`;
+    // A farm's recompute rewrites hundreds of MB of account rows at once; room for more WAL between
+    // checkpoints keeps such a rewrite from stalling on a forced checkpoint halfway.
+    const opts = `-c listen_addresses=127.0.0.1 -c port=${PG_PORT} -c unix_socket_directories=${socketDir} -c max_wal_size=4GB`;
     const status = asPostgres(binDir, "pg_ctl", [
       "start", "-D", dataDir, "-l", path.join(dataDir, "server.log"), "-w", "-t", "60", "-o", opts,
     ], true);
