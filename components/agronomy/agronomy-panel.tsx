@@ -82,7 +82,7 @@ export function AgronomyPanel({ farmId, plantings }: { farmId: string; plantings
             <label className="flex flex-col gap-1 text-sm font-bold">
               Planting
               <select
-                className="tap rounded-xl border border-river-300 bg-white px-2 py-2 text-base font-normal"
+                className="tap w-full min-w-0 rounded-xl border border-river-300 bg-white px-2 py-2 text-base font-normal"
                 value={plantingId ?? ""}
                 onChange={(e) => setPlantingId(e.target.value)}
               >

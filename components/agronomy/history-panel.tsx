@@ -90,10 +90,10 @@ export function HistoryPanel({
                 ["Right", r.key, setRight],
               ] as const
             ).map(([side, value, setter]) => (
-              <label key={side} className="flex flex-col gap-1 text-sm font-bold">
+              <label key={side} className="flex min-w-0 flex-col gap-1 text-sm font-bold">
                 {side} version
                 <select
-                  className="tap rounded-xl border border-river-300 bg-white px-2 py-2 font-normal"
+                  className="tap w-full min-w-0 rounded-xl border border-river-300 bg-white px-2 py-2 font-normal"
                   value={value}
                   onChange={(e) => setter(e.target.value)}
                 >

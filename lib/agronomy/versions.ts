@@ -25,7 +25,7 @@ export interface Version {
 }
 
 /** Keys that are bookkeeping, not settings. */
-const IGNORED = new Set(["id", "createdAt", "updatedAt", "farmId", "library"]);
+const IGNORED = new Set(["id", "createdAt", "updatedAt", "farmId", "fieldId", "library"]);
 
 /** Versions oldest first: the state before the oldest change (when known), then the state after each change. */
 export function versionsOf(history: readonly HistoryChange[]): Version[] {

@@ -73,6 +73,8 @@ test("an agronomist changes Kc mid, sees the what-if, saves with a reason, the a
   await expect(
     page.getByTestId("version-compare").locator('tr[data-changed="yes"]').filter({ hasText: "Kc mid" }),
   ).toBeVisible();
+  // Nothing pushes the page sideways, on a 390 px phone either.
+  expect(await page.evaluate(() => document.documentElement.scrollWidth - window.innerWidth)).toBeLessThanOrEqual(0);
   await page.screenshot({ path: shot(info.project.name, "agronomy-history"), fullPage: true });
 });
 
