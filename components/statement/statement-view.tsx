@@ -14,6 +14,7 @@ import { TERMS, TERM_LABELS, type Quantity } from "@/lib/statement/totals";
 import type { Statement } from "@/lib/statement/types";
 import { depthUnit, depthValue, formatLocalDate, type UnitSystem } from "@/lib/units";
 import { AllocationChart } from "./allocation-chart";
+import { YieldCell } from "./yield-cell";
 
 function depth(mm: number, units: UnitSystem): string {
   return formatNumber(depthValue(mm, units), units === "imperial" ? 2 : 1);
@@ -209,7 +210,7 @@ function FieldsSection({ s, units }: { s: Statement; units: UnitSystem }) {
   );
 }
 
-function ProductivitySection({ s }: { s: Statement }) {
+function ProductivitySection({ s, farmId, canEditYield, reload }: { s: Statement; farmId: string; canEditYield: boolean; reload: () => Promise<unknown> }) {
   const rows = s.productivity;
   return (
     <section aria-labelledby="productivity" className="flex flex-col gap-2">
@@ -249,7 +250,16 @@ function ProductivitySection({ s }: { s: Statement }) {
                   <td className="px-2 py-1.5">
                     {p.cropName}, {p.season}
                   </td>
-                  <td className="px-2 py-1.5 text-right">{p.yieldTHa === null ? "not entered" : formatNumber(p.yieldTHa, 1)}</td>
+                  <td className="px-2 py-1.5 text-right">
+                    <YieldCell
+                      farmId={farmId}
+                      plantingId={p.plantingId}
+                      label={`${p.fieldName}, ${p.cropName} ${p.season}`}
+                      yieldTHa={p.yieldTHa}
+                      canEdit={canEditYield}
+                      onSaved={reload}
+                    />
+                  </td>
                   <td className="px-2 py-1.5 text-right">{formatNumber(p.kgPerM3Irrigation, 2)}</td>
                   <td className="px-2 py-1.5 text-right">{formatNumber(p.kgPerM3Et, 2)}</td>
                 </tr>
@@ -258,7 +268,9 @@ function ProductivitySection({ s }: { s: Statement }) {
           </table>
         </Scroll>
       )}
-      <p className="text-xs text-ink/75">A planting&apos;s yield is entered on the planting (yield, t/ha, as harvested).</p>
+      <p className="text-xs text-ink/75">
+        Yield is in tonnes per hectare as harvested{canEditYield ? "; enter it here once the crop is off" : ", entered by the farm's managers and agronomists"}.
+      </p>
     </section>
   );
 }
@@ -270,7 +282,18 @@ function choiceValue(c: StatementChoice, s: Statement | undefined): string {
 }
 
 /** The season water statement: choose field and period, read the totals, allocation and productivity, download, print or send. */
-export function StatementView({ farmId, initialUnits, initialChoice = {} }: { farmId: string; initialUnits: UnitSystem; initialChoice?: StatementChoice }) {
+export function StatementView({
+  farmId,
+  initialUnits,
+  initialChoice = {},
+  canEditYield = false,
+}: {
+  farmId: string;
+  initialUnits: UnitSystem;
+  initialChoice?: StatementChoice;
+  /** whether this person may edit plantings (and so enter yields) */
+  canEditYield?: boolean;
+}) {
   const { units } = useUnits(initialUnits);
   const [choice, setChoiceState] = useState<StatementChoice>(initialChoice);
   // The address follows the choice, so a link or a reload opens the same statement.
@@ -281,7 +304,7 @@ export function StatementView({ farmId, initialUnits, initialChoice = {} }: { fa
   };
   const [sending, setSending] = useState(false);
   const [sent, setSent] = useState<{ ok: boolean; text: string } | null>(null);
-  const { data: s, error, isLoading } = useStatement(farmId, choice);
+  const { data: s, error, isLoading, mutate } = useStatement(farmId, choice);
 
   if (error && !s) return <Notice tone="problem">Could not make the statement: {error.message}</Notice>;
   if (!s) return <p className="text-ink/75">Adding up the season…</p>;
@@ -376,7 +399,7 @@ export function StatementView({ farmId, initialUnits, initialChoice = {} }: { fa
 
       <AllocationSection s={s} />
       <FieldsSection s={s} units={units} />
-      <ProductivitySection s={s} />
+      <ProductivitySection s={s} farmId={farmId} canEditYield={canEditYield} reload={() => mutate()} />
     </div>
   );
 }

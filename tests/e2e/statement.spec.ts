@@ -76,3 +76,27 @@ test("a worker is refused the statement, on the page and from the API", async ({
   expect((await page.request.get(`/api/v1/farms/${farmId}/statement`)).status()).toBe(403);
   expect((await page.request.get(`/api/v1/farms/${farmId}/statement.pdf`)).status()).toBe(403);
 });
+
+test("the owner enters a harvest yield and the statement gives water productivity", async ({ page }) => {
+  const farmId = await openKestrelBend(page, DEMO.owner);
+  await page.goto(`/farms/${farmId}/statement`);
+  await expect(page.getByRole("heading", { name: "Water productivity" })).toBeVisible();
+  const enter = page.getByRole("button", { name: /^Enter the yield of / }).first();
+  const label = ((await enter.getAttribute("aria-label")) ?? "").replace("Enter the yield of ", "");
+  await enter.click();
+  await page.getByLabel(`Yield of ${label}, t/ha`).fill("12.5");
+  await page.getByRole("button", { name: "Save", exact: true }).click();
+  const row = page.getByRole("row", { name: new RegExp(label.split(",")[0]!) }).filter({ hasText: "12.5" });
+  await expect(row).toBeVisible();
+
+  // The screen shows what the API now computes for that planting (the arithmetic is checked in tests/integration/statement.test.ts).
+  type Row = { plantingId: string; fieldName: string; yieldTHa: number | null; kgPerM3Irrigation: number | null };
+  const body = (await (await page.request.get(`/api/v1/farms/${farmId}/statement`)).json()) as { productivity: Row[] };
+  const stored = body.productivity.find((p) => p.yieldTHa === 12.5 && label.startsWith(p.fieldName))!;
+  expect(stored).toBeDefined();
+  if (stored.kgPerM3Irrigation !== null) await expect(row).toContainText(stored.kgPerM3Irrigation.toFixed(2));
+
+  // Put the demo farm back as it was.
+  const res = await page.request.patch(`/api/v1/farms/${farmId}/plantings/${stored.plantingId}`, { data: { yieldTHa: null } });
+  expect(res.status()).toBe(200);
+});

@@ -2,6 +2,7 @@ import type { Metadata } from "next";
 import { notFound } from "next/navigation";
 import { getFarm } from "@/db/farms";
 import { StatementView } from "@/components/statement/statement-view";
+import { can } from "@/lib/auth/roles";
 import { requireFarmPage } from "@/lib/auth/session";
 import { statementQuerySchema } from "@/lib/validation/statement";
 
@@ -18,8 +19,15 @@ export default async function StatementPage({
   // A shared link opens the same choice; a garbled one opens the current water year.
   const query = statementQuerySchema.safeParse(await searchParams);
   const { fieldId, waterYear, season } = query.success ? query.data : {};
-  const { user } = await requireFarmPage(farmId, "readStatement");
+  const { user, role } = await requireFarmPage(farmId, "readStatement");
   const farm = await getFarm(farmId);
   if (!farm) notFound();
-  return <StatementView farmId={farmId} initialUnits={user.unitSystem} initialChoice={{ fieldId, waterYear, season }} />;
+  return (
+    <StatementView
+      farmId={farmId}
+      initialUnits={user.unitSystem}
+      initialChoice={{ fieldId, waterYear, season }}
+      canEditYield={can(role, "editAgronomy")}
+    />
+  );
 }
