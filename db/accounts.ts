@@ -3,6 +3,7 @@ import { hash } from "node:crypto";
 import type { Knex } from "knex";
 import type { PoolClient } from "pg";
 import { from as copyFrom } from "pg-copy-streams";
+import type { AccountDayDto } from "@/lib/accounts/day-types";
 import { db } from "./knex";
 
 /** The stored water account (account_days): bulk rewrites by the recompute job, and the reads of the API. */
@@ -440,29 +441,9 @@ export async function carriedDepletions(
   return out;
 }
 
-/** One stored day of a field's account, as the API shows it. */
-export interface StoredAccountDay {
-  date: string;
+/** One stored day of a field's account, as the API shows it (the day's terms are shared with the client). */
+export interface StoredAccountDay extends Omit<AccountDayDto, "provenance"> {
   plantingId: string | null;
-  etoMm: number | null;
-  kc: number | null;
-  etcMm: number | null;
-  ks: number | null;
-  etActualMm: number | null;
-  rainMm: number | null;
-  runoffMm: number | null;
-  effectiveRainMm: number | null;
-  irrigationGrossMm: number | null;
-  irrigationNetMm: number | null;
-  capillaryRiseMm: number | null;
-  deepPercolationMm: number | null;
-  depletionStartMm: number;
-  depletionEndMm: number;
-  tawMm: number | null;
-  rawMm: number | null;
-  pAdjusted: number | null;
-  rootDepthM: number | null;
-  soilCheckReset: boolean;
   provenance: Record<string, unknown>;
   computedAt: string;
 }
