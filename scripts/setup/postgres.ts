@@ -98,9 +98,10 @@ export function ensureCluster(): Cluster {
   const running = asPostgres(binDir, "pg_ctl", ["status", "-D", dataDir], true) === 0;
   if (!running) {
     say(`starting PostgreSQL on 127.0.0.1:${PG_PORT}`);
-    // A farm's recompute rewrites hundreds of MB of account rows at once; room for more WAL between
-    // checkpoints keeps such a rewrite from stalling on a forced checkpoint halfway.
-    const opts = `-c listen_addresses=127.0.0.1 -c port=${PG_PORT} -c unix_socket_directories=${socketDir} -c max_wal_size=4GB`;
+    // A farm's recompute rewrites hundreds of MB of account rows at once: room for more WAL between
+    // checkpoints keeps such a rewrite from stalling on a forced checkpoint halfway, and lz4 (built into
+    // Debian's server) shrinks the full-page images, which halved PostgreSQL's CPU time in the benchmark.
+    const opts = `-c listen_addresses=127.0.0.1 -c port=${PG_PORT} -c unix_socket_directories=${socketDir} -c max_wal_size=4GB -c wal_compression=lz4`;
     const status = asPostgres(binDir, "pg_ctl", [
       "start", "-D", dataDir, "-l", path.join(dataDir, "server.log"), "-w", "-t", "60", "-o", opts,
     ], true);
