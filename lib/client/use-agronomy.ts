@@ -2,6 +2,8 @@
 
 import useSWR from "swr";
 import type { HistoryChange } from "@/lib/agronomy/versions";
+import type { CropValues } from "@/lib/validation/crop";
+import type { SoilValues } from "@/lib/validation/soil";
 import { fetchJson } from "./fetcher";
 
 /** A planting as the API returns it; null overrides mean "the crop's own value". */
@@ -28,49 +30,18 @@ export interface PlantingDto {
   updatedAt: string;
 }
 
-export interface CropDto {
+/** A crop as the API answers it: the library's (farmId null) or a farm's own copy. */
+export interface CropDto extends CropValues {
   id: string;
   farmId: string | null;
   library: boolean;
-  name: string;
-  kcIni: number;
-  kcMid: number;
-  kcEnd: number;
-  kcbIni: number | null;
-  kcbMid: number | null;
-  kcbEnd: number | null;
-  stageIniDays: number;
-  stageDevDays: number;
-  stageMidDays: number;
-  stageLateDays: number;
-  heightM: number | null;
-  rootMinM: number;
-  rootMaxM: number;
-  p: number;
-  curveNumber: number | null;
-  runoffCover: string | null;
-  source: string | null;
-  note: string | null;
 }
 
-export interface SoilDto {
+/** A soil as the API answers it: the library's (farmId null) or a farm's own copy. */
+export interface SoilDto extends SoilValues {
   id: string;
   farmId: string | null;
   library: boolean;
-  name: string;
-  texture: string;
-  thetaFc: number;
-  thetaWp: number;
-  thetaSat: number;
-  rewMm: number | null;
-  tewMm: number | null;
-  gaSuctionMm: number | null;
-  gaKsatMmH: number | null;
-  gaPorosity: number | null;
-  gaEffectivePorosity: number | null;
-  hydrologicGroup: string | null;
-  source: string | null;
-  note: string | null;
 }
 
 export interface KcUsedDto {
