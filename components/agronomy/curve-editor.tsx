@@ -6,24 +6,12 @@ import { Button } from "@/components/ui/button";
 import { Notice } from "@/components/ui/notice";
 import { ApiError, fetchJson, sendJson } from "@/lib/client/fetcher";
 import type { CropDto, CurvePreviewDto, PlantingDto } from "@/lib/client/use-agronomy";
-import { label } from "./format";
+import { CURVE_NUMBER_KEYS, label } from "./format";
 import { KcCurveChart, type CurveValues } from "./kc-curve-chart";
 import { PreviewChart } from "./preview-chart";
 import { TuningCaution } from "./tuning-caution";
 
-const NUMBER_KEYS = [
-  "kcIni",
-  "kcMid",
-  "kcEnd",
-  "stageIniDays",
-  "stageDevDays",
-  "stageMidDays",
-  "stageLateDays",
-  "rootMinM",
-  "rootMaxM",
-  "p",
-] as const;
-type NumberKey = (typeof NUMBER_KEYS)[number];
+type NumberKey = (typeof CURVE_NUMBER_KEYS)[number];
 type Form = Record<NumberKey | "mad" | "kcScale", string> & { climateAdjust: boolean };
 
 const STEP: Record<NumberKey | "mad" | "kcScale", string> = {
@@ -44,7 +32,7 @@ const STEP: Record<NumberKey | "mad" | "kcScale", string> = {
 /** The values the account runs with: the planting's override, else the crop's. */
 function effective(planting: PlantingDto, crop: CropDto): Form {
   const f = {} as Form;
-  for (const k of NUMBER_KEYS) f[k] = String(planting[k] ?? crop[k]);
+  for (const k of CURVE_NUMBER_KEYS) f[k] = String(planting[k] ?? crop[k]);
   f.mad = planting.mad === null ? "" : String(planting.mad);
   f.kcScale = String(planting.kcScale ?? 1);
   f.climateAdjust = planting.climateAdjust;
@@ -54,7 +42,7 @@ function effective(planting: PlantingDto, crop: CropDto): Form {
 /** What differs from the saved values, as the API takes it. */
 function editOf(form: Form, saved: Form): Record<string, number | boolean | null> {
   const edit: Record<string, number | boolean | null> = {};
-  for (const k of [...NUMBER_KEYS, "kcScale"] as const) {
+  for (const k of [...CURVE_NUMBER_KEYS, "kcScale"] as const) {
     if (form[k].trim() !== "" && Number(form[k]) !== Number(saved[k])) edit[k] = Number(form[k]);
   }
   if (form.mad.trim() !== saved.mad.trim()) edit.mad = form.mad.trim() === "" ? null : Number(form.mad);

@@ -1,4 +1,19 @@
 /** Labels and number formats shared by the agronomy screens. */
+
+/** A crop curve's numbers as a person edits them: on a planting's curve and on a farm's crop copy. */
+export const CURVE_NUMBER_KEYS = [
+  "kcIni",
+  "kcMid",
+  "kcEnd",
+  "stageIniDays",
+  "stageDevDays",
+  "stageMidDays",
+  "stageLateDays",
+  "rootMinM",
+  "rootMaxM",
+  "p",
+] as const;
+
 export const CURVE_LABELS: Record<string, string> = {
   kcIni: "Kc ini",
   kcMid: "Kc mid",

@@ -6,7 +6,7 @@ import { Notice } from "@/components/ui/notice";
 import { cropValueSources, soilValueSources } from "@/lib/agronomy/sources";
 import { ApiError, sendJson } from "@/lib/client/fetcher";
 import { useCrops, useSoils, type CropDto, type SoilDto } from "@/lib/client/use-agronomy";
-import { label, show } from "./format";
+import { CURVE_NUMBER_KEYS, label, show } from "./format";
 import { HistoryPanel } from "./history-panel";
 
 const CROP_KEYS = [
@@ -36,18 +36,6 @@ const SOIL_KEYS = [
   "gaPorosity",
   "gaEffectivePorosity",
   "hydrologicGroup",
-] as const;
-const CROP_EDIT = [
-  "kcIni",
-  "kcMid",
-  "kcEnd",
-  "stageIniDays",
-  "stageDevDays",
-  "stageMidDays",
-  "stageLateDays",
-  "rootMinM",
-  "rootMaxM",
-  "p",
 ] as const;
 const SOIL_EDIT = ["thetaFc", "thetaWp", "thetaSat", "rewMm", "tewMm"] as const;
 
@@ -237,7 +225,7 @@ function Entry({
               farmId={farmId}
               kind={kind}
               row={row}
-              keys={crop ? CROP_EDIT : SOIL_EDIT}
+              keys={crop ? CURVE_NUMBER_KEYS : SOIL_EDIT}
               onDone={() => {
                 setMode("none");
                 onChanged();
